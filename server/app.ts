@@ -1,0 +1,81 @@
+import { existsSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import path from 'node:path'
+import express from 'express'
+import helmet from 'helmet'
+import type { Db } from './db'
+import type { Mailer } from './services/mail'
+import { systemClock, type Clock } from './clock'
+import type { AppContext } from './context'
+import { createLucia } from './auth/lucia'
+import { loadSession } from './auth/middleware'
+import { errorHandler } from './middleware/error-handler'
+import { originCheck } from './middleware/origin-check'
+import { NotFound } from './errors'
+import { healthRouter } from './routes/health'
+import { authRouter } from './routes/auth'
+import { organisationsRouter, usersRouter } from './routes/users'
+import { outboxRouter } from './routes/outbox'
+import { jobsRouter } from './routes/jobs'
+
+export interface AppOptions {
+  db: Db
+  mailer: Mailer
+  clock?: Clock
+  /** Secure cookies (HTTPS only); on in production. */
+  secureCookies?: boolean
+  loginRateLimit?: { windowMs: number; limit: number }
+  publicUrl?: string
+  /** Folder of the built client; served with a single-page fallback when it exists. */
+  clientDir?: string | null
+}
+
+const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
+
+export function createApp(options: AppOptions) {
+  const lucia = createLucia(options.db, options.secureCookies ?? false)
+  const ctx: AppContext = {
+    db: options.db,
+    lucia,
+    mailer: options.mailer,
+    clock: options.clock ?? systemClock,
+    loginRateLimit: options.loginRateLimit ?? { windowMs: 5 * 60_000, limit: 20 },
+    publicUrl: (req) => options.publicUrl ?? `${req.protocol}://${req.get('host')}`,
+  }
+
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+  app.use(helmet({
+    contentSecurityPolicy: {
+      directives: {
+        // PrimeVue injects its theme as <style> elements at run time.
+        'style-src': ["'self'", "'unsafe-inline'"],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'font-src': ["'self'", 'data:'],
+        'upgrade-insecure-requests': options.secureCookies ? [] : null,
+      },
+    },
+  }))
+  app.use('/api', express.json({ limit: '1mb' }))
+  app.use('/api', originCheck)
+  app.use('/api', loadSession(lucia))
+
+  app.use('/api/health', healthRouter())
+  app.use('/api/auth', authRouter(ctx))
+  app.use('/api/users', usersRouter(ctx))
+  app.use('/api/organisations', organisationsRouter(ctx))
+  app.use('/api/outbox', outboxRouter(ctx))
+  app.use('/api/jobs', jobsRouter(ctx))
+
+  app.use('/api', (_req, _res, next) => next(new NotFound('API route')))
+
+  const clientDir = options.clientDir === undefined ? defaultClientDir : options.clientDir
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }))
+    app.get('/{*splat}', (_req, res) => { res.sendFile(path.join(clientDir, 'index.html')) })
+  }
+
+  app.use(errorHandler)
+  return app
+}

@@ -1,0 +1,4 @@
+// The whole Drizzle schema: one file per area under tables/, gathered here for drizzle-kit and the app.
+export * from './tables/auth'
+export * from './tables/outbox'
+export * from './tables/jobs'

@@ -1,0 +1,21 @@
+import type { RequestHandler } from 'express'
+import type { z } from 'zod'
+
+interface Schemas {
+  body?: z.ZodType
+  query?: z.ZodType
+  params?: z.ZodType
+}
+
+/** Parses body, query and params with zod; a ZodError reaches the error handler as a 422. */
+export function validate(schemas: Schemas): RequestHandler {
+  return (req, _res, next) => {
+    if (schemas.params) req.params = schemas.params.parse(req.params) as typeof req.params
+    if (schemas.query) {
+      // Express 5 exposes req.query as a getter; shadow it with the parsed value.
+      Object.defineProperty(req, 'query', { value: schemas.query.parse(req.query), writable: true })
+    }
+    if (schemas.body) req.body = schemas.body.parse(req.body ?? {})
+    next()
+  }
+}

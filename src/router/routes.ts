@@ -1,0 +1,36 @@
+import type { RouteRecordRaw } from 'vue-router'
+import type { Role } from '@shared/roles'
+
+declare module 'vue-router' {
+  interface RouteMeta {
+    /** Reachable without signing in. */
+    public?: boolean
+    /** Roles that may open the page; every signed-in role when absent. */
+    roles?: Role[]
+    /** Shown in the sidebar when set, sorted by order. */
+    nav?: { label: string; icon: string; order: number }
+  }
+}
+
+const ALL: Role[] = ['planner', 'engineer', 'manager', 'admin']
+
+// Each feature adds its pages here; the sidebar is built from these records and the user's role.
+export const routes = [
+  { path: '/sign-in', name: 'sign-in', component: () => import('@/views/SignInView.vue'), meta: { public: true } },
+  { path: '/invite/:token', name: 'invite', component: () => import('@/views/InviteAcceptView.vue'), meta: { public: true } },
+  {
+    path: '/', name: 'home', component: () => import('@/views/HomeView.vue'),
+    meta: { roles: ALL, nav: { label: 'Home', icon: 'pi pi-home', order: 0 } },
+  },
+  {
+    path: '/people', name: 'users', component: () => import('@/views/UserListView.vue'),
+    meta: { roles: ['admin'], nav: { label: 'People', icon: 'pi pi-users', order: 80 } },
+  },
+  {
+    path: '/outbox', name: 'outbox', component: () => import('@/views/OutboxView.vue'),
+    meta: { roles: ['admin'], nav: { label: 'Outbox', icon: 'pi pi-envelope', order: 90 } },
+  },
+  { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
+] as const satisfies readonly RouteRecordRaw[]
+
+export type RouteName = (typeof routes)[number]['name']

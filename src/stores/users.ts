@@ -1,0 +1,32 @@
+import { defineStore } from 'pinia'
+import { ref } from 'vue'
+import * as usersApi from '@/api/users'
+import type { InviteBody, OrganisationDto, UserDto, UserPatchBody } from '@shared/schemas/auth'
+
+export const useUsersStore = defineStore('users', () => {
+  const items = ref<UserDto[]>([])
+  const organisations = ref<OrganisationDto[]>([])
+  const loading = ref(false)
+
+  async function load() {
+    loading.value = true
+    try {
+      ;[items.value, organisations.value] = await Promise.all([usersApi.listUsers(), usersApi.listOrganisations()])
+    } finally {
+      loading.value = false
+    }
+  }
+
+  async function invite(body: InviteBody) {
+    const user = await usersApi.inviteUser(body)
+    items.value = [...items.value, user]
+    return user
+  }
+
+  async function patch(id: string, body: UserPatchBody) {
+    const user = await usersApi.patchUser(id, body)
+    items.value = items.value.map((u) => (u.id === id ? user : u))
+  }
+
+  return { items, organisations, loading, load, invite, patch }
+})

@@ -2,3 +2,4 @@
 export * from './tables/auth'
 export * from './tables/outbox'
 export * from './tables/jobs'
+export * from './tables/signals'

@@ -17,6 +17,7 @@ import { authRouter } from './routes/auth'
 import { organisationsRouter, usersRouter } from './routes/users'
 import { outboxRouter } from './routes/outbox'
 import { jobsRouter } from './routes/jobs'
+import { intersectionsRouter } from './routes/intersections'
 
 export interface AppOptions {
   db: Db
@@ -67,6 +68,7 @@ export function createApp(options: AppOptions) {
   app.use('/api/organisations', organisationsRouter(ctx))
   app.use('/api/outbox', outboxRouter(ctx))
   app.use('/api/jobs', jobsRouter(ctx))
+  app.use('/api/intersections', intersectionsRouter(ctx))
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))
 

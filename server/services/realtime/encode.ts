@@ -1,0 +1,39 @@
+// Writes FeedMessages for the local fake feed, the demo snapshots and the benchmark.
+import GtfsRealtimeBindings from 'gtfs-realtime-bindings'
+
+const rt = GtfsRealtimeBindings.transit_realtime
+
+export interface VehicleToEncode {
+  entityId: string
+  tripId: string
+  routeId?: string
+  startDate: string
+  vehicleId: string
+  timeS: number
+  lat: number
+  lon: number
+  bearing?: number
+  speedMps?: number
+  status?: 0 | 1 | 2
+  stopId?: string
+  stopSequence?: number
+}
+
+export function encodeVehicleFeed(headerTimeS: number, vehicles: VehicleToEncode[]): Uint8Array {
+  const msg = rt.FeedMessage.create({
+    header: { gtfsRealtimeVersion: '2.0', incrementality: rt.FeedHeader.Incrementality.FULL_DATASET, timestamp: headerTimeS },
+    entity: vehicles.map((v) => ({
+      id: v.entityId,
+      vehicle: {
+        trip: { tripId: v.tripId, routeId: v.routeId, startDate: v.startDate },
+        vehicle: { id: v.vehicleId },
+        position: { latitude: v.lat, longitude: v.lon, bearing: v.bearing, speed: v.speedMps },
+        timestamp: v.timeS,
+        currentStatus: v.status,
+        stopId: v.stopId,
+        currentStopSequence: v.stopSequence,
+      },
+    })),
+  })
+  return rt.FeedMessage.encode(msg).finish()
+}

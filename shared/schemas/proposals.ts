@@ -2,6 +2,7 @@
 // corridor approach), the decisions of the cities and the stored evaluation results.
 import { z } from 'zod'
 import { DAY_TYPES, type DayType } from '../signals/time-of-day'
+import type { PlanForCheck } from '../proposals/priority-checks'
 
 export const STRATEGIES = ['none', 'green-extension', 'early-green', 'both'] as const
 export type Strategy = (typeof STRATEGIES)[number]
@@ -201,7 +202,9 @@ export interface RowResultsSummary {
   dailyBusHoursSaved: number
   /** Worst period. */
   crossExtraDelayPerVehS: number
+  vcBeforeMax: number | null
   vcAfterMax: number | null
+  losBeforeWorst: string | null
   losAfterWorst: string | null
   personDelayBalanceS: number
 }
@@ -238,6 +241,8 @@ export interface ProposalRowDto {
   counterResults: RowResultsDto | null
   lastComment: string
   checks: RowCheckDto[]
+  /** The timing plans of the intersection as the limit checks need them (live checks while editing). */
+  plans: PlanForCheck[]
   history: RowEventDto[]
   /** What the signed-in person may do with the row now. */
   may: RowPermissions

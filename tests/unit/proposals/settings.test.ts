@@ -42,3 +42,21 @@ describe('decision and answer bodies', () => {
     expect(issuePaths(answerBody.safeParse({ action: 'accept-counter', settings: { maxExtensionS: 4 }, version: 3 }))).toEqual(['settings'])
   })
 })
+
+describe('what changed meanwhile (shown on a 409)', () => {
+  it('lists status, settings, counter and comment in words with who did it', async () => {
+    const { describeRowChanges } = await import('../../../shared/proposals/row-diff')
+    const before = { status: 'submitted' as const, version: 3, settings: DEFAULT_ROW_SETTINGS, counter: null, lastComment: '' }
+    const after = {
+      status: 'change-requested' as const, version: 4, settings: DEFAULT_ROW_SETTINGS, counter: { maxExtensionS: 6 }, lastComment: 'Keep it short at peak.',
+      history: [{ rowVersion: 3, actor: { name: 'Tova Rasmussen' } }, { rowVersion: 4, actor: { name: 'Dario Fenwick' } }],
+    }
+    expect(describeRowChanges(before, after)).toEqual([
+      'Status: Awaiting city → Change asked (by Dario Fenwick)',
+      'Counter: none → Maximum extension 6 s',
+      'Comment: “Keep it short at peak.”',
+    ])
+    expect(describeRowChanges(before, { ...before, version: 4, settings: { ...DEFAULT_ROW_SETTINGS, lockoutCycles: 2 } }))
+      .toEqual(['Lockout: 1 cycle → 2 cycles'])
+  })
+})

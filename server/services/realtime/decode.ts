@@ -35,6 +35,7 @@ export interface VehicleReading {
   tripId: string | null
   routeId: string | null
   startDate: string | null
+  startTime: string | null
   vehicleId: string | null
   /** Unix seconds of the reading: the vehicle's own timestamp, else the header's. */
   timeS: number
@@ -67,6 +68,7 @@ export interface TripUpdateReading {
   tripId: string | null
   routeId: string | null
   startDate: string | null
+  startTime: string | null
   vehicleId: string | null
   /** Unix seconds the update was measured: its own timestamp, else the header's. */
   timeS: number
@@ -141,6 +143,7 @@ function tripFields(trip: unknown) {
     tripId: opt(trip, 'tripId', str),
     routeId: opt(trip, 'routeId', str),
     startDate: opt(trip, 'startDate', str),
+    startTime: opt(trip, 'startTime', str),
   }
 }
 

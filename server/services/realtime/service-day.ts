@@ -1,6 +1,9 @@
 // GTFS counts stop times from "noon minus 12 h" of the service day in the agency's time zone
 // (GTFS Schedule reference, stop_times.arrival_time), which is midnight except on the days the
 // clocks change. These helpers turn a service date and such a count into Unix seconds and back.
+import { dayOfIso, gtfsDate, parseGtfsDate } from '../../../shared/gtfs/date'
+import { dayTypeOf } from '../../../shared/corridors/day-types'
+import type { DayType } from '../../../shared/signals/time-of-day'
 
 const formatters = new Map<string, Intl.DateTimeFormat>()
 
@@ -47,14 +50,12 @@ export function localDate(unixS: number, timeZone: string): string {
   return `${p.year}${String(p.month).padStart(2, '0')}${String(p.day).padStart(2, '0')}`
 }
 
+/** The service day `days` after a "YYYYMMDD" one. */
 export function addDays(date: string, days: number): string {
-  const d = new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(4, 6)) - 1, Number(date.slice(6, 8)) + days))
-  return `${d.getUTCFullYear()}${String(d.getUTCMonth() + 1).padStart(2, '0')}${String(d.getUTCDate()).padStart(2, '0')}`
+  const day = parseGtfsDate(date)
+  if (day === null) throw new Error(`service date "${date}" is not YYYYMMDD`)
+  return gtfsDate(day + days)
 }
 
-export type DayType = 'weekday' | 'saturday' | 'sunday'
-
-export function dayTypeOf(date: string): DayType {
-  const dow = new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(4, 6)) - 1, Number(date.slice(6, 8)))).getUTCDay()
-  return dow === 0 ? 'sunday' : dow === 6 ? 'saturday' : 'weekday'
-}
+/** Weekday, Saturday or Sunday of a "YYYY-MM-DD" service day. */
+export const dayTypeOfIso = (iso: string): DayType => dayTypeOf(dayOfIso(iso))

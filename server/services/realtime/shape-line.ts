@@ -1,6 +1,9 @@
 // A trip shape as a polyline in a local plane, for placing vehicle positions at a distance along it.
 // An equirectangular projection about the shape's mean latitude is accurate to well under a metre
-// over the few kilometres of a corridor, which is far inside GPS error.
+// over the few kilometres of a corridor, which is far inside GPS error. Distances along the shape
+// are the GTFS import's own (haversine per vertex), so positions, stops and intersections share
+// one measure.
+import { cumulativeDistanceM } from '../../../shared/gtfs/geo'
 
 const EARTH_RADIUS_M = 6_371_008.8
 
@@ -32,13 +35,12 @@ export function buildShapeLine(points: LatLon[]): ShapeLine {
   const base = { lat0, lon0, cosLat0: Math.cos((lat0 * Math.PI) / 180) }
   const xs = new Float64Array(points.length)
   const ys = new Float64Array(points.length)
-  const cum = new Float64Array(points.length)
   points.forEach((p, i) => {
     const [x, y] = toPlane(base, p)
     xs[i] = x
     ys[i] = y
-    if (i > 0) cum[i] = cum[i - 1] + Math.hypot(x - xs[i - 1], y - ys[i - 1])
   })
+  const cum = cumulativeDistanceM(points.map((p) => p.lat), points.map((p) => p.lon))
   return { xs, ys, cum, lengthM: cum[points.length - 1], ...base }
 }
 

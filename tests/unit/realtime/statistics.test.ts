@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { bootstrapChange, median, p85, quantile, seededRandom, sortNumbers } from '../../../server/services/realtime/statistics'
-import { dayTypeOf, localDate, serviceDayStart } from '../../../server/services/realtime/service-day'
+import { addDays, dayTypeOfIso, localDate, serviceDayStart } from '../../../server/services/realtime/service-day'
 
 describe('quantiles (Hyndman & Fan 1996, definition 7: R and NumPy default)', () => {
   it('matches hand computation', () => {
@@ -60,8 +60,9 @@ describe('service day (GTFS: times count from noon minus 12 h, local time)', () 
 
   it('names local dates and day types', () => {
     expect(localDate(Date.UTC(2024, 4, 5, 22, 30) / 1000, 'Europe/Amsterdam')).toBe('20240506')
-    expect(dayTypeOf('20240506')).toBe('weekday')
-    expect(dayTypeOf('20240511')).toBe('saturday')
-    expect(dayTypeOf('20240512')).toBe('sunday')
+    expect(dayTypeOfIso('2024-05-06')).toBe('weekday')
+    expect(dayTypeOfIso('2024-05-11')).toBe('saturday')
+    expect(dayTypeOfIso('2024-05-12')).toBe('sunday')
+    expect(addDays('20240301', -1)).toBe('20240229')
   })
 })

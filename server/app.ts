@@ -18,6 +18,9 @@ import { organisationsRouter, usersRouter } from './routes/users'
 import { outboxRouter } from './routes/outbox'
 import { jobsRouter } from './routes/jobs'
 import { intersectionsRouter } from './routes/intersections'
+import { corridorsRouter } from './routes/corridors'
+import { feedsRouter } from './routes/feeds'
+import type { GtfsLimits } from './services/gtfs/limits'
 
 export interface AppOptions {
   db: Db
@@ -29,6 +32,8 @@ export interface AppOptions {
   publicUrl?: string
   /** Folder of the built client; served with a single-page fallback when it exists. */
   clientDir?: string | null
+  /** Caps on GTFS uploads; tests lower them to exercise the zip-bomb checks. */
+  gtfsLimits?: Partial<GtfsLimits>
 }
 
 const defaultClientDir = fileURLToPath(new URL('../dist', import.meta.url))
@@ -42,6 +47,7 @@ export function createApp(options: AppOptions) {
     clock: options.clock ?? systemClock,
     loginRateLimit: options.loginRateLimit ?? { windowMs: 5 * 60_000, limit: 20 },
     publicUrl: (req) => options.publicUrl ?? `${req.protocol}://${req.get('host')}`,
+    gtfsLimits: options.gtfsLimits ?? {},
   }
 
   const app = express()
@@ -69,6 +75,8 @@ export function createApp(options: AppOptions) {
   app.use('/api/outbox', outboxRouter(ctx))
   app.use('/api/jobs', jobsRouter(ctx))
   app.use('/api/intersections', intersectionsRouter(ctx))
+  app.use('/api/corridors', corridorsRouter(ctx))
+  app.use('/api/feeds', feedsRouter(ctx))
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))
 

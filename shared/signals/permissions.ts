@@ -7,7 +7,3 @@ export function mayEditSignal(actor: Actor, jurisdictionId: string): boolean {
   return actor.role === 'admin' || (actor.role === 'engineer' && actor.organisationId === jurisdictionId)
 }
 
-/** Corridors and their approach data are kept by the agency's planners (and by admins). */
-export function mayEditCorridor(actor: Actor, agencyId: string): boolean {
-  return actor.role === 'admin' || (actor.role === 'planner' && actor.organisationId === agencyId)
-}

@@ -2,6 +2,7 @@ import { doublePrecision, index, integer, pgTable, primaryKey, smallint, text, t
 import { organisations, users } from './auth'
 import { feedVersions } from './gtfs'
 import { intersections } from './signals'
+import { STOP_RELATIONS } from '../../../shared/corridors/approach-rules'
 
 // A corridor: one or more routes of an imported feed version that share a street, in one
 // direction, measured along one representative shape. Feed versions never change once imported,
@@ -48,8 +49,6 @@ export const corridorPeriods = pgTable('corridor_periods', {
   endTime: text('end_time').notNull(),
   sortOrder: integer('sort_order').notNull(),
 }, (t) => [index('corridor_periods_corridor_idx').on(t.corridorId)])
-
-export const STOP_RELATIONS = ['near-side', 'far-side', 'none'] as const
 
 /**
  * The corridor's approach at one intersection: where it is along the corridor, the traffic data

@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto'
 import type { User } from 'lucia'
 import { and, asc, eq, ilike, sql, type SQL } from 'drizzle-orm'
-import { intersections, timingPlans } from '../../db/schema'
+import { corridorApproaches, corridors, intersections, timingPlans } from '../../db/schema'
 import { Conflict, Unprocessable } from '../../errors'
 import type { IntersectionBody, IntersectionDto, IntersectionPatchBody, TimingPlanBody } from '../../../shared/schemas/signals'
 import { intersectionBody } from '../../../shared/schemas/signals'
@@ -97,7 +97,9 @@ export async function deleteIntersection(db: DbOrTx, actor: User, id: string, ve
   await db.delete(intersections).where(eq(intersections.id, id))
 }
 
-/** Names of the corridors with an approach at the intersection (none until corridors exist). */
-async function intersectionUsage(_db: DbOrTx, _id: string): Promise<string[]> {
-  return []
+/** Names of the corridors with an approach at the intersection. */
+export async function intersectionUsage(db: DbOrTx, id: string): Promise<string[]> {
+  const rows = await db.selectDistinct({ name: corridors.name }).from(corridorApproaches)
+    .innerJoin(corridors, eq(corridorApproaches.corridorId, corridors.id)).where(eq(corridorApproaches.intersectionId, id))
+  return rows.map((r) => r.name).sort()
 }

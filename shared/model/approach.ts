@@ -14,12 +14,12 @@
 import type { ApproachInput, ApproachResult, LosGrade, PhaseDelay, PriorityAction } from '../schemas/model'
 import { freeDensity, speed } from './fundamental-diagram'
 import { type SignalPlan, fixedTimePlan } from './boundary'
-import { freeRunS, freeTimeToLineS, runBusExact } from './bus'
+import { type BusRun, type BusSetup, freeRunS, freeTimeToLineS, runBusExact } from './bus'
 import { type ExactApproach, type QueueField, exactApproach, periodDelay, queueField, redQueue } from './cumulative-counts'
 import { type BusModel, askingShare, decidePriority } from './priority'
-import { busApproachChanges, crossStreetChanges, grantEffect } from './cross-street'
+import { type GrantEffect, busApproachChanges, crossStreetChanges, grantEffect } from './cross-street'
 import { controlDelayS, levelOfService } from './hcm'
-import { weightedSummary } from './stats'
+import { mixtureSummary, summary } from './stats'
 import { prepareApproach, type PreparedApproach } from './setup'
 import { QUEUED_SPEED, type StoredField, approachGrid, cursorFor, runBusField, simulateField } from './field'
 import { perSToPerHour } from './si'
@@ -115,19 +115,44 @@ function runExact(p: PreparedApproach, phases: number[]): { traffic: TrafficFigu
   if (p.diagram.kind !== 'triangular') throw new RangeError('the exact solver needs the triangular diagram')
   const ex = exactApproach(p.diagram, p.qa)
   const win = busWindow(p)
-  const baseField = queueField(ex, win.plan, win.firstQueue)
-  const fieldOf = (plan: SignalPlan): QueueField => (plan === win.plan ? baseField : queueField(ex, plan, win.firstQueue))
   const tLine = freeTimeToLineS(p.bus)
   const free = freeRunS(p.bus)
+  const model = new ExactBusModel(ex, win, p.bus)
   const samples: BusSample[] = []
   for (const cycle of win.busCycles) {
     for (let k = 0; k < phases.length; k++) {
-      const start = cycle * p.cycleS + phases[k] - tLine
-      const model: BusModel = { run: (plan, record) => runBusExact(ex, fieldOf(plan), p.bus, start, record) }
-      samples.push(sampleOf(model, win.plan, p, k, start, free))
+      model.start = cycle * p.cycleS + phases[k] - tLine
+      samples.push(sampleOf(model, win.plan, p, k, model.start, free))
     }
   }
   return { traffic: exactTraffic(p, ex), samples }
+}
+
+/** One bus at a time through the exact field; fields of changed plans are kept, phases share them. */
+class ExactBusModel implements BusModel {
+  start = 0
+  private readonly baseField: QueueField
+  private readonly changed = new Map<string, QueueField>()
+
+  constructor(private readonly ex: ExactApproach, private readonly win: Window, private readonly bus: BusSetup) {
+    this.baseField = queueField(ex, win.plan, win.firstQueue)
+  }
+
+  run(plan: SignalPlan, record: boolean): BusRun {
+    return runBusExact(this.ex, this.fieldOf(plan), this.bus, this.start, record)
+  }
+
+  private fieldOf(plan: SignalPlan): QueueField {
+    if (plan === this.win.plan) return this.baseField
+    const key = plan.change
+    if (key === undefined) return queueField(this.ex, plan, this.win.firstQueue)
+    let field = this.changed.get(key)
+    if (!field) {
+      field = queueField(this.ex, plan, this.win.firstQueue)
+      this.changed.set(key, field)
+    }
+    return field
+  }
 }
 
 function sampleOf(model: BusModel, plan: SignalPlan, p: PreparedApproach, phaseIndex: number, start: number, free: number): BusSample {
@@ -236,22 +261,19 @@ function summarise(p: PreparedApproach, phases: number[], traffic: TrafficFigure
   const wP = share.askShare * (1 - share.lockedOutShare)
 
   const base = new Float64Array(n)
-  const mixValues = new Float64Array(2 * n)
-  const mixWeights = new Float64Array(2 * n)
+  const prio = new Float64Array(n)
   let baseHeld = 0
   let prioHeld = 0
   for (let i = 0; i < n; i++) {
     const s = samples[i]
     base[i] = s.baselineS
-    mixValues[i] = s.priorityS
-    mixWeights[i] = wP
-    mixValues[n + i] = s.baselineS
-    mixWeights[n + i] = 1 - wP
+    prio[i] = s.priorityS
     if (s.baselineHeld) baseHeld++
     prioHeld += wP * (s.priorityHeld ? 1 : 0) + (1 - wP) * (s.baselineHeld ? 1 : 0)
   }
-  const b = weightedSummary(base, new Float64Array(n).fill(1))
-  const pr = weightedSummary(mixValues, mixWeights)
+  const b = summary(base)
+  // asking, unlocked buses get the priority run; the others the baseline
+  const pr = mixtureSummary(prio, wP, base, 1 - wP)
 
   // per grant: green taken, cross-street extra delay, bus-approach car delay change
   const cr = p.cross
@@ -261,14 +283,24 @@ function summarise(p: PreparedApproach, phases: number[], traffic: TrafficFigure
   let crossQueue = 0
   let recovery = 0
   let mainChange = 0
+  // many phases take the same green (the full limit): work each distinct grant out once
+  const effects = new Map<string, [GrantEffect, GrantEffect]>()
   for (const s of samples) {
     if (s.action === 'none') continue
     taken += s.greenTakenS
-    const ce = grantEffect(cr.q, cr.s, cr.redS, cr.greenS, crossStreetChanges(s.action, s.greenTakenS), maxCycles)
-    crossExtra += ce.extraVehS
-    crossQueue += ce.extraQueueVeh
-    recovery = Math.max(recovery, ce.recoveryCycles)
-    mainChange += grantEffect(p.qa, p.s, p.redS, p.greenS, busApproachChanges(s.action, s.greenTakenS), maxCycles).extraVehS
+    const key = s.action + s.greenTakenS
+    let e = effects.get(key)
+    if (!e) {
+      e = [
+        grantEffect(cr.q, cr.s, cr.redS, cr.greenS, crossStreetChanges(s.action, s.greenTakenS), maxCycles),
+        grantEffect(p.qa, p.s, p.redS, p.greenS, busApproachChanges(s.action, s.greenTakenS), maxCycles),
+      ]
+      effects.set(key, e)
+    }
+    crossExtra += e[0].extraVehS
+    crossQueue += e[0].extraQueueVeh
+    recovery = Math.max(recovery, e[0].recoveryCycles)
+    mainChange += e[1].extraVehS
   }
   const g = grantedCount || 1
   const perGrant = { taken: taken / g, crossExtra: crossExtra / g, crossQueue: crossQueue / g, mainChange: mainChange / g }
@@ -372,3 +404,8 @@ function phaseTable(phases: number[], samples: BusSample[]): PhaseDelay[] {
   })
 }
 
+
+/** Many approaches at once (a corridor's intersections, periods and scenarios). */
+export function evaluateApproaches(inputs: readonly ApproachInput[], options: EvaluateOptions = {}): ApproachResult[] {
+  return inputs.map((input) => evaluateApproach(input, options))
+}

@@ -15,6 +15,8 @@
 export interface SignalPlan {
   redStart: Float64Array
   redEnd: Float64Array
+  /** what a priority change did, as a key (plans with equal keys from one base are equal) */
+  change?: string
 }
 
 export interface SignalInterval {
@@ -88,12 +90,12 @@ export function signalIntervals(plan: SignalPlan, t0: number, t1: number): Signa
 export function extendGreen(plan: SignalPlan, redIndex: number, e: number): SignalPlan {
   const redStart = plan.redStart.slice()
   redStart[redIndex] = Math.min(plan.redEnd[redIndex], redStart[redIndex] + e)
-  return { redStart, redEnd: plan.redEnd }
+  return { redStart, redEnd: plan.redEnd, change: `${plan.change ?? ''}s${redIndex}:${redStart[redIndex]}` }
 }
 
 /** The plan with red i ended at newEnd (an early green). */
 export function truncateRed(plan: SignalPlan, redIndex: number, newEnd: number): SignalPlan {
   const redEnd = plan.redEnd.slice()
   redEnd[redIndex] = Math.max(plan.redStart[redIndex], newEnd)
-  return { redStart: plan.redStart, redEnd }
+  return { redStart: plan.redStart, redEnd, change: `${plan.change ?? ''}e${redIndex}:${redEnd[redIndex]}` }
 }

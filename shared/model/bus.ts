@@ -101,11 +101,12 @@ export function runBusExact(ex: ExactApproach, field: QueueField, bus: BusSetup,
   const v = bus.speed
   const w = ex.w
   const u = ex.u
+  const checkIn = bus.checkInDistanceM
   const doorClose = requestAtDoorClose(bus)
   const points = record ? [startS, -bus.lengthM] : null
   let t = startS
   let d = bus.lengthM
-  let requestS = doorClose ? NaN : d <= bus.checkInDistanceM ? t : NaN
+  let requestS = doorClose ? NaN : d <= checkIn ? t : NaN
   let stops = 0
   let held = false
   let moving = true
@@ -113,7 +114,11 @@ export function runBusExact(ex: ExactApproach, field: QueueField, bus: BusSetup,
   let ptr = 0
   while (ptr < nRed && redEnd[ptr] + d / w <= t) ptr++
 
-  const moveTo = (dTarget: number): void => {
+  // legs: to the near-side stop (if any), then to the line; written as one loop (no closures:
+  // this runs for every arrival phase of every approach)
+  const legs = bus.nearSide ? 2 : 1
+  for (let leg = 0; leg < legs; leg++) {
+    const dTarget = leg === 0 && bus.nearSide ? bus.nearSide.distanceM : 0
     for (;;) {
       const tauMax = (d - dTarget) / v
       let entry = -1
@@ -136,21 +141,16 @@ export function runBusExact(ex: ExactApproach, field: QueueField, bus: BusSetup,
           break
         }
       }
+      const dNext = entry < 0 ? dTarget : d - v * te
+      if (!doorClose && requestS !== requestS && d >= checkIn && dNext <= checkIn) requestS = t + (d - checkIn) / v
       if (entry < 0) {
-        if (!doorClose && Number.isNaN(requestS) && d >= bus.checkInDistanceM && dTarget <= bus.checkInDistanceM) {
-          requestS = t + (d - bus.checkInDistanceM) / v
-        }
         t += tauMax
         d = dTarget
         if (points) points.push(t, -d)
-        return
-      }
-      const dEntry = d - v * te
-      if (!doorClose && Number.isNaN(requestS) && d >= bus.checkInDistanceM && dEntry <= bus.checkInDistanceM) {
-        requestS = t + (d - bus.checkInDistanceM) / v
+        break
       }
       t += te
-      d = dEntry
+      d = dNext
       if (points) points.push(t, -d)
       const restart = redEnd[entry] + d / w
       const wait = restart - t
@@ -166,16 +166,13 @@ export function runBusExact(ex: ExactApproach, field: QueueField, bus: BusSetup,
       moving = true
       ptr = entry + 1
     }
+    if (leg === 0 && bus.nearSide) {
+      t += bus.nearSide.dwellS + bus.stopPenaltyS
+      if (points) points.push(t, -d)
+      moving = false
+      if (doorClose) requestS = t
+    }
   }
-
-  if (bus.nearSide) {
-    moveTo(bus.nearSide.distanceM)
-    t += bus.nearSide.dwellS + bus.stopPenaltyS
-    if (points) points.push(t, -d)
-    moving = false
-    if (doorClose) requestS = t
-  }
-  moveTo(0)
   const crossS = t
   if (bus.farSide) {
     t += bus.farSide.distanceM / v

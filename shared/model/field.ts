@@ -183,8 +183,8 @@ export function runBusField(cursor: FieldCursor, base: StoredField, plan: Signal
     const tEnd = (m + 1) * dt
     while (t < tEnd - EVENT_EPS && ev < events.length) {
       if (holdUntil > t) {
-        const until = Math.min(holdUntil, tEnd)
-        t = until
+        t = Math.min(holdUntil, tEnd)
+        if (points && t === holdUntil) points.push(t, x)
         continue
       }
       const event = events[ev]
@@ -195,7 +195,7 @@ export function runBusField(cursor: FieldCursor, base: StoredField, plan: Signal
         } else if (event.kind === 'near') {
           holdUntil = t + bus.nearSide!.dwellS + bus.stopPenaltyS
           if (doorClose) requestS = holdUntil
-          if (points) points.push(t, x, holdUntil, x)
+          if (points) points.push(t, x)
           afterDwell = true
           stopped = false
           counted = false
@@ -209,13 +209,13 @@ export function runBusField(cursor: FieldCursor, base: StoredField, plan: Signal
             }
             const i = redIndexAfter(plan, t)
             holdUntil = plan.redEnd[i]
-            if (points) points.push(t, x, holdUntil, x)
+            if (points) points.push(t, x)
             continue
           }
           crossS = t
         } else if (event.kind === 'far') {
           holdUntil = t + bus.farSide!.dwellS + bus.stopPenaltyS
-          if (points) points.push(t, x, holdUntil, x)
+          if (points) points.push(t, x)
           afterDwell = true
           stopped = false
           counted = false
@@ -245,7 +245,6 @@ export function runBusField(cursor: FieldCursor, base: StoredField, plan: Signal
             const wait = t - standSince
             if (isFullStop(bus, wait)) stops++
             holdUntil = t + queueStopPenaltyS(bus, wait)
-            if (points) points.push(holdUntil, x)
             continue
           }
         }

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import {
   capacity, criticalDensity, flux, greenshields, kmhToMps, mpsToKmh, perSToPerHour, solveRiemann, speed,
   triangularFromWaveSpeed, waveSpeed,
-} from '@shared/model'
+} from '../../shared/model'
 
 // Values per km and per hour are converted to the model's SI at the edge of each check.
 const perKm = (k: number) => k / 1000

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { incrementalDelayS, levelOfService, stopPenaltyS, websterCycleS, websterDelayS } from '@shared/model'
+import { incrementalDelayS, levelOfService, stopPenaltyS, websterCycleS, websterDelayS } from '../../shared/model'
 
 describe('HCM incremental delay', () => {
   // HCM 2000 eq. 16-12 (from memory): d2 = 900 T [(X-1) + sqrt((X-1)^2 + 8 k I X / (c T))],

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest'
 import {
   capacity, cellTransmission, evaluateApproach, exactApproach, fixedTimePlan, kmhToMps, mpsToKmh, newStepFlows,
   queueField, redQueue, step, triangularFromWaveSpeed, uniformDelayS,
-} from '@shared/model'
-import { approachBody } from '@shared/schemas/model'
+} from '../../shared/model'
+import { approachBody } from '../../shared/schemas/model'
 
 const triangle = triangularFromWaveSpeed({ freeFlowSpeedKmh: 60, backwardWaveSpeedKmh: 20, jamDensityVehPerKmPerLane: 120 })
 

@@ -20,6 +20,8 @@ import { jobsRouter } from './routes/jobs'
 import { intersectionsRouter } from './routes/intersections'
 import { corridorsRouter } from './routes/corridors'
 import { feedsRouter } from './routes/feeds'
+import { proposalsRouter } from './routes/proposals'
+import { realtimeRouter } from './routes/realtime'
 import { modelRouter } from './routes/model'
 import type { GtfsLimits } from './services/gtfs/limits'
 
@@ -78,6 +80,8 @@ export function createApp(options: AppOptions) {
   app.use('/api/intersections', intersectionsRouter(ctx))
   app.use('/api/corridors', corridorsRouter(ctx))
   app.use('/api/feeds', feedsRouter(ctx))
+  app.use('/api/proposals', proposalsRouter(ctx))
+  app.use('/api/realtime', realtimeRouter(ctx))
   app.use('/api/model', modelRouter())
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))

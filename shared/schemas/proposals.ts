@@ -189,6 +189,7 @@ export interface PeriodResultDto {
   vcAfter: number | null
   losBefore: string | null
   losAfter: string | null
+  /** Person-seconds saved over the period on one day, both streets (positive: priority pays). */
   personDelayBalanceS: number | null
   /** Why the period could not be evaluated (no plan in force, a broken limit...). */
   error: string | null
@@ -197,7 +198,7 @@ export interface PeriodResultDto {
 export interface RowResultsSummary {
   dayType: DayType
   tripsPerDay: number
-  /** Trip-weighted mean over the periods. */
+  /** Trip-weighted mean over the periods (plain mean where no bus runs). */
   savingPerTripS: number
   dailyBusHoursSaved: number
   /** Worst period. */
@@ -206,6 +207,7 @@ export interface RowResultsSummary {
   vcAfterMax: number | null
   losBeforeWorst: string | null
   losAfterWorst: string | null
+  /** Person-seconds saved per day over the evaluated periods. */
   personDelayBalanceS: number
 }
 
@@ -218,7 +220,8 @@ export interface RowResultsDto {
   settings: RowSettings
   /** The settings, timing plans or approach data changed since: evaluate again. */
   stale: boolean
-  summary: RowResultsSummary | null
+  /** One per day type with evaluated periods. */
+  summaries: RowResultsSummary[]
   periods: PeriodResultDto[]
 }
 
@@ -279,9 +282,10 @@ export interface EvaluationRefDto {
 
 export interface CorridorTotalsDto {
   dayType: DayType
-  /** Sum over intersections of the trip-weighted saving per trip. */
+  /** Sum over intersections of the trip-weighted saving per trip: what a bus gains end to end. */
   savingPerTripS: number
   dailyBusHoursSaved: number
+  /** Person-seconds saved per day. */
   personDelayBalanceS: number
   rowsEvaluated: number
 }

@@ -73,15 +73,16 @@ export const proposalRowEvents = pgTable('proposal_row_events', {
 }, (t) => [index('proposal_row_events_row_idx').on(t.rowId, t.id)])
 
 /**
- * One run of the model: over every row of a proposal (kind 'proposal', from a job) or over one
- * row's counter values (kind 'counter', at the decision). Results are written with the run
- * marked succeeded in one transaction, so a failed run leaves none.
+ * One run of the model: over every row of a proposal (kind 'proposal', from a job), over one
+ * row's new settings (kind 'row', when the planner answers the city) or over one row's counter
+ * values (kind 'counter', at the decision). Results are written with the run marked succeeded in
+ * one transaction, so a failed run leaves none.
  */
 export const proposalEvaluations = pgTable('proposal_evaluations', {
   id: text('id').primaryKey(),
   proposalId: text('proposal_id').notNull().references(() => proposals.id, { onDelete: 'cascade' }),
-  kind: text('kind', { enum: ['proposal', 'counter'] }).notNull(),
-  /** For a counter run: the row it is about. */
+  kind: text('kind', { enum: ['proposal', 'row', 'counter'] }).notNull(),
+  /** For a row or counter run: the row it is about. */
   rowId: text('row_id').references(() => proposalRows.id, { onDelete: 'cascade' }),
   proposalVersion: integer('proposal_version').notNull(),
   state: text('state', { enum: ['running', 'succeeded', 'failed'] }).notNull().default('running'),

@@ -21,6 +21,7 @@ import { intersectionsRouter } from './routes/intersections'
 import { corridorsRouter } from './routes/corridors'
 import { feedsRouter } from './routes/feeds'
 import { proposalsRouter } from './routes/proposals'
+import { realtimeRouter } from './routes/realtime'
 import { modelRouter } from './routes/model'
 import type { GtfsLimits } from './services/gtfs/limits'
 
@@ -80,6 +81,7 @@ export function createApp(options: AppOptions) {
   app.use('/api/corridors', corridorsRouter(ctx))
   app.use('/api/feeds', feedsRouter(ctx))
   app.use('/api/proposals', proposalsRouter(ctx))
+  app.use('/api/realtime', realtimeRouter(ctx))
   app.use('/api/model', modelRouter())
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))

@@ -95,13 +95,19 @@ export function buildTrajectory(
   return { points, offRoute }
 }
 
+/**
+ * A bus first seen this close past a point, or seen this close to a stop after reaching it, is
+ * taken to be at it: a bus waiting at a terminal or a stop reads a few metres off by GPS.
+ */
+export const AT_POINT_TOLERANCE_M = 15
+
 /** First time the trajectory reaches distM (the arrival there), or null if unobserved. */
 export function arrivalAt(traj: TrajectoryPoint[], distM: number, maxGapS = DEFAULT_TRAJECTORY_OPTIONS.maxGapS): number | null {
   for (let k = 0; k < traj.length; k++) {
     const p = traj[k]
     if (p.distM < distM) continue
     if (p.distM === distM) return p.timeS
-    if (k === 0) return null // first seen already past it
+    if (k === 0) return p.distM - distM <= AT_POINT_TOLERANCE_M ? p.timeS : null
     const q = traj[k - 1]
     if (p.timeS - q.timeS > maxGapS) return null
     return q.timeS + ((distM - q.distM) / (p.distM - q.distM)) * (p.timeS - q.timeS)
@@ -109,14 +115,16 @@ export function arrivalAt(traj: TrajectoryPoint[], distM: number, maxGapS = DEFA
   return null
 }
 
-/** Last time the trajectory is at distM (the departure from a stop there), or null. */
+/** Last time the trajectory is at distM (the departure from a stop there), or null if unobserved. */
 export function departureAt(traj: TrajectoryPoint[], distM: number, maxGapS = DEFAULT_TRAJECTORY_OPTIONS.maxGapS): number | null {
-  let last: number | null = null
+  const arrival = arrivalAt(traj, distM, maxGapS)
+  if (arrival === null) return null
+  let last = arrival
   for (const p of traj) {
-    if (p.distM === distM) last = p.timeS
-    else if (p.distM > distM) break
+    if (p.distM > distM + AT_POINT_TOLERANCE_M) break
+    if (p.timeS > last && p.distM >= distM) last = p.timeS
   }
-  return last ?? arrivalAt(traj, distM, maxGapS)
+  return last
 }
 
 /** Observed dwell at a stop: the time the trajectory stays at its distance, when stop events show it. */

@@ -74,5 +74,15 @@ describe('buildTrajectory and crossing times (hand computed)', () => {
     expect(arrivalAt(points, 1500)).toBeNull()
     expect(arrivalAt(points, 500)).toBeNull() // 570 s between readings > 300 s
     expect(arrivalAt(points, 100)).toBeCloseTo(0, 3)
+    // First seen 10 m past a point (within the 15 m GPS tolerance): taken to be there.
+    expect(arrivalAt(points, 90)).toBe(0)
+  })
+
+  it('times the departure from a terminal where the bus waits a few metres off the stop', () => {
+    // Readings at 0, 30, 60 s all 4-9 m past a stop at 100 m (a bus at the kerb), then 400 m at 90 s.
+    // Departure = last reading within 15 m of the stop: 60 s; arrival = the first: 0 s.
+    const { points } = buildTrajectory(straight, [pos(0, 104), pos(30, 109), pos(60, 106), pos(90, 400)], [])
+    expect(arrivalAt(points, 100)).toBe(0)
+    expect(departureAt(points, 100)).toBe(60)
   })
 })

@@ -30,6 +30,22 @@ export const routes = [
     path: '/outbox', name: 'outbox', component: () => import('@/views/OutboxView.vue'),
     meta: { roles: ['admin'], nav: { label: 'Outbox', icon: 'pi pi-envelope', order: 90 } },
   },
+  {
+    path: '/corridors', name: 'corridors', component: () => import('@/views/CorridorListView.vue'),
+    meta: { roles: ALL, nav: { label: 'Corridors', icon: 'pi pi-directions', order: 20 } },
+  },
+  {
+    path: '/corridors/:id', name: 'corridor', component: () => import('@/views/CorridorDetailView.vue'), props: true,
+    meta: { roles: ALL },
+  },
+  {
+    path: '/signals', name: 'signals', component: () => import('@/views/SignalListView.vue'),
+    meta: { roles: ALL, nav: { label: 'Signals', icon: 'pi pi-stop-circle', order: 30 } },
+  },
+  {
+    path: '/signals/:id', name: 'signal', component: () => import('@/views/SignalDetailView.vue'), props: true,
+    meta: { roles: ALL },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
 ] as const satisfies readonly RouteRecordRaw[]
 

@@ -2,7 +2,6 @@
 import type { FeedState } from './feed-state'
 import { readGtfsFile, type ReadContext, type ReadOutcome } from './read-file'
 import type { ZipEntry } from './zip'
-import { csv } from './writer'
 
 export async function readAgency(st: FeedState, ctx: ReadContext, entry: ZipEntry): Promise<ReadOutcome> {
   const file = 'agency.txt'
@@ -21,7 +20,8 @@ export async function readAgency(st: FeedState, ctx: ReadContext, entry: ZipEntr
     }
     st.agencyIds.add(r.agency_id)
     st.agencyTimezones.add(r.agency_timezone)
-    w.line(`${st.feedId},${csv(r.agency_id) || '""'},${csv(r.agency_name)},${csv(r.agency_url)},${csv(r.agency_timezone)},${csv(r.agency_lang)},${csv(r.agency_phone)},${csv(r.agency_fare_url)},${csv(r.agency_email)}`)
+    w.row(9).int(st.feedId).text(r.agency_id, true).text(r.agency_name).text(r.agency_url).text(r.agency_timezone)
+      .text(r.agency_lang).text(r.agency_phone).text(r.agency_fare_url).text(r.agency_email)
   }
   if (st.agencyTimezones.size > 1) {
     st.findings.warning('agency_timezone', { file, line: null, field: 'agency_timezone', value: [...st.agencyTimezones].join(', '), message: 'All agencies of a feed should use the same time zone.' })
@@ -56,12 +56,15 @@ export async function readStops(st: FeedState, ctx: ReadContext, entry: ZipEntry
     const i = st.stopIds.length
     st.stopIndex.set(r.stop_id, i)
     st.stopIds.push(r.stop_id)
+    st.stopBytes.push(Buffer.from(r.stop_id))
     st.stopLat.push(r.stop_lat === '' ? NaN : Number(r.stop_lat))
     st.stopLon.push(r.stop_lon === '' ? NaN : Number(r.stop_lon))
     st.stopType.push(type)
     const parent = type === 1 ? '' : r.parent_station
     if (parent !== '') st.parentOf.push({ stop: i, parent, line })
-    w.line(`${st.feedId},${csv(r.stop_id)},${csv(r.stop_code)},${csv(r.stop_name)},${csv(r.stop_desc)},${r.stop_lat},${r.stop_lon},${csv(r.zone_id)},${csv(r.stop_url)},${type},${csv(parent)},${csv(r.stop_timezone)},${r.wheelchair_boarding},${csv(r.platform_code)}`)
+    w.row(14).int(st.feedId).text(r.stop_id).text(r.stop_code).text(r.stop_name).text(r.stop_desc)
+      .float(st.stopLat[i]).float(st.stopLon[i]).text(r.zone_id).text(r.stop_url).small(type).text(parent)
+      .text(r.stop_timezone).small(r.wheelchair_boarding === '' ? null : Number(r.wheelchair_boarding)).text(r.platform_code)
   })
   st.stopUsed = new Uint8Array(st.stopIds.length)
   for (const p of st.parentOf) {
@@ -108,6 +111,8 @@ export async function readRoutes(st: FeedState, ctx: ReadContext, entry: ZipEntr
     }
     st.routeIndex.set(r.route_id, st.routeUsed.length)
     st.routeUsed.push(false)
-    w.line(`${st.feedId},${csv(r.route_id)},${csv(agency) || '""'},${csv(r.route_short_name)},${csv(r.route_long_name)},${csv(r.route_desc)},${r.route_type},${csv(r.route_url)},${r.route_color.toUpperCase()},${r.route_text_color.toUpperCase()},${r.route_sort_order}`)
+    w.row(11).int(st.feedId).text(r.route_id).text(agency, true).text(r.route_short_name).text(r.route_long_name).text(r.route_desc)
+      .int(Number(r.route_type)).text(r.route_url).text(r.route_color.toUpperCase()).text(r.route_text_color.toUpperCase())
+      .int(r.route_sort_order === '' ? null : Number(r.route_sort_order))
   })
 }

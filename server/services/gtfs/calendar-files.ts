@@ -1,10 +1,9 @@
 // calendar.txt and calendar_dates.txt, and the active dates of every service derived from them.
-import { parseGtfsDate, isoDate } from '../../../shared/gtfs/date'
+import { parseGtfsDate } from '../../../shared/gtfs/date'
 import { serviceDates } from '../../../shared/gtfs/service-dates'
 import type { FeedState } from './feed-state'
 import { readGtfsFile, type ReadContext, type ReadOutcome } from './read-file'
 import type { ZipEntry } from './zip'
-import { csv } from './writer'
 
 const DAYS = ['monday', 'tuesday', 'wednesday', 'thursday', 'friday', 'saturday', 'sunday'] as const
 
@@ -26,7 +25,9 @@ export async function readCalendar(st: FeedState, ctx: ReadContext, entry: ZipEn
     st.calendarServices.add(r.service_id)
     const days = DAYS.map((d) => r[d] === '1')
     st.calendarRules.push({ serviceId: r.service_id, days, startDay: start, endDay: end })
-    w.line(`${st.feedId},${csv(r.service_id)},${days.map((d) => (d ? 't' : 'f')).join(',')},${isoDate(start)},${isoDate(end)}`)
+    w.row(11).int(st.feedId).text(r.service_id)
+    for (const d of days) w.bool(d)
+    w.date(start).date(end)
   })
 }
 
@@ -44,7 +45,7 @@ export async function readCalendarDates(st: FeedState, ctx: ReadContext, entry: 
     const day = parseGtfsDate(r.date)!
     st.calendarServices.add(r.service_id)
     st.calendarExceptions.push({ serviceId: r.service_id, day, exceptionType: r.exception_type === '1' ? 1 : 2 })
-    w.line(`${st.feedId},${csv(r.service_id)},${isoDate(day)},${r.exception_type}`)
+    w.row(4).int(st.feedId).text(r.service_id).date(day).small(Number(r.exception_type))
   })
 }
 
@@ -56,8 +57,8 @@ export function writeServiceDates(st: FeedState) {
     if (days.length === 0) {
       st.findings.warning('service_without_dates', { file: 'calendar.txt', line: null, field: 'service_id', value: service, message: `The service ${service} is active on no date.` })
     }
-    const sid = csv(service)
-    for (const d of days) w.line(`${st.feedId},${sid},${isoDate(d)}`)
+    const sid = Buffer.from(service)
+    for (const d of days) w.row(3).int(st.feedId).bytes(sid).date(d)
     if (st.usedServices.has(service) && days.length) {
       if (st.serviceStart === null || days[0] < st.serviceStart) st.serviceStart = days[0]
       if (st.serviceEnd === null || days[days.length - 1] > st.serviceEnd) st.serviceEnd = days[days.length - 1]

@@ -20,15 +20,17 @@ export interface CsvResult {
 
 export class CsvEncodingError extends Error {}
 
-async function* decode(chunks: AsyncIterable<Uint8Array>): AsyncGenerator<string> {
+async function* decode(chunks: AsyncIterable<Uint8Array>, seen: { quote: boolean }): AsyncGenerator<string> {
   // fatal: refuse text that is not UTF-8 rather than import replacement characters.
   const decoder = new TextDecoder('utf-8', { fatal: true })
   try {
     for await (const c of chunks) {
       const s = decoder.decode(c, { stream: true })
+      if (!seen.quote && s.includes('"')) seen.quote = true
       if (s) yield s
     }
     const rest = decoder.decode()
+    if (rest.includes('"')) seen.quote = true
     if (rest) yield rest
   } catch (err) {
     if (err instanceof TypeError) throw new CsvEncodingError('The file is not valid UTF-8 text.')
@@ -43,7 +45,9 @@ export function parseCsv(chunks: AsyncIterable<Uint8Array>, sink: CsvSink): Prom
     let dataRows = 0
     let failed: unknown = null
     let stopped = false
-    const stream = Readable.from(decode(chunks), { objectMode: true })
+    // Without a quote so far, no field can hold a line break: skip looking for one.
+    const seen = { quote: false }
+    const stream = Readable.from(decode(chunks, seen), { objectMode: true })
     stream.on('error', (err) => { if (!failed) failed = err })
     Papa.parse<string[]>(stream as unknown as File, {
       delimiter: ',',
@@ -59,7 +63,7 @@ export function parseCsv(chunks: AsyncIterable<Uint8Array>, sink: CsvSink): Prom
             if (rowLines) rowLines[i] = at
             // Breaks inside quoted fields advance the line count of what follows.
             let extra = 0
-            for (let j = 0; j < r.length; j++) {
+            if (seen.quote) for (let j = 0; j < r.length; j++) {
               const v = r[j]
               if (v.length > 0 && v.indexOf('\n') >= 0) for (let k = 0; k < v.length; k++) if (v.charCodeAt(k) === 10) extra++
             }

@@ -3,7 +3,7 @@
 // objects) so that it stays small next to the feed itself.
 import type { CalendarException, CalendarRule } from '../../../shared/gtfs/service-dates'
 import type { Findings } from './findings'
-import { TableWriter, csv } from './writer'
+import { TableWriter } from './writer'
 import { COPY_COLUMNS } from './columns'
 import { GTFS_TABLES, type GtfsTable } from '../../db/tables/gtfs'
 
@@ -26,6 +26,8 @@ export class FeedState {
 
   stopIndex = new Map<string, number>()
   stopIds: string[] = []
+  /** UTF-8 of each stop_id, encoded once for its many stop_times. */
+  stopBytes: Buffer[] = []
   stopLat: number[] = []
   stopLon: number[] = []
   stopType: number[] = []
@@ -46,13 +48,15 @@ export class FeedState {
 
   tripIndex = new Map<string, number>()
   tripIds: string[] = []
-  /** The trip_id as a CSV field, escaped once rather than on each of its stop times. */
-  tripCsv: string[] = []
+  /** UTF-8 of each trip_id, encoded once for its many stop_times. */
+  tripBytes: Buffer[] = []
   tripShape: (ShapeGeometry | null)[] = []
   tripRoute: number[] = []
   tripDirection: number[] = []
   tripStopTimes: Int32Array = new Int32Array(0)
   tripFirstDeparture: Int32Array = new Int32Array(0)
+  /** Byte range [start, end) of each trip's stop_times in the scratch file, at 2t and 2t + 1. */
+  tripSegment: Float64Array = new Float64Array(0)
 
   interpolatedStopTimes = 0
   serviceDateRows = 0
@@ -73,5 +77,7 @@ export class FeedState {
     for (const w of Object.values(this.writers)) w.close()
   }
 
-  csvStop(i: number) { return csv(this.stopIds[i]) }
+  disposeWriters() {
+    for (const w of Object.values(this.writers)) w.dispose()
+  }
 }

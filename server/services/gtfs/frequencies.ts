@@ -36,9 +36,9 @@ export async function readFrequencies(st: FeedState, ctx: ReadContext, entry: Zi
       return
     }
     const exact = r.exact_times === '1' ? 1 : 0
-    w.line(`${st.feedId},${st.tripCsv[trip]},${start},${end},${headway},${exact}`)
+    w.row(6).int(st.feedId).bytes(st.tripBytes[trip]).int(start).int(end).int(headway).small(exact)
     for (const t of frequencyStartTimes({ startS: start, endS: end, headwayS: headway })) {
-      expanded.line(`${st.feedId},${st.tripCsv[trip]},${t},${t - first},${headway},${exact ? 't' : 'f'}`)
+      expanded.row(6).int(st.feedId).bytes(st.tripBytes[trip]).int(t).int(t - first).int(headway).bool(exact === 1)
     }
   })
   for (const [trip, list] of windows) {

@@ -81,6 +81,7 @@ export async function importFeedFromFile(db: Db, input: ImportInput, report: Rep
     await markFeed(db.$client, feedId, 'failed', summarise(st, findings.toReport())).catch(() => {})
     throw failure(feedId, findings)
   } finally {
+    st?.disposeWriters()
     await rm(workDir, { recursive: true, force: true })
   }
 }

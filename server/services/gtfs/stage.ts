@@ -91,6 +91,7 @@ export async function stageFeed(o: StageOptions): Promise<FeedState | null> {
       st.noteErrors()
     }
   } catch (err) {
+    st.disposeWriters()
     if (err instanceof ArchiveError) { archiveFinding(findings, err); return null }
     throw err
   }

@@ -10,7 +10,6 @@ import { formatGtfsTime, parseGtfsTime } from '../../../shared/gtfs/time'
 import type { FeedState, ShapeGeometry } from './feed-state'
 import { readGtfsFile, type ReadContext, type ReadOutcome } from './read-file'
 import type { ZipEntry } from './zip'
-import { csv } from './writer'
 
 const FILE = 'stop_times.txt'
 /** A stop this far from its trip's shape is probably misplaced. */
@@ -55,7 +54,6 @@ class Rows {
 }
 
 const small = (s: string) => (s === '' ? -1 : Number(s))
-const orNull = (v: number) => (v < 0 ? '' : String(v))
 
 export async function readStopTimes(st: FeedState, ctx: ReadContext, entry: ZipEntry): Promise<ReadOutcome> {
   const checkpoint = st.findings.checkpoint()
@@ -68,6 +66,7 @@ export async function readStopTimes(st: FeedState, ctx: ReadContext, entry: ZipE
   st.writers.gtfs_stop_times.reset()
   st.tripStopTimes.fill(0)
   st.tripFirstDeparture.fill(-1)
+  st.tripSegment.fill(0)
   st.interpolatedStopTimes = 0
   return pass(st, ctx, entry, false)
 }
@@ -187,15 +186,16 @@ class TripFinisher {
     for (let k = 0; k < n; k++) if (Number.isNaN(arr[k]) || Number.isNaN(dep[k])) { interpolated = interpolateStopTimes(arr, dep, distM); break }
     st.tripFirstDeparture[trip] = dep[0]
     const w = st.writers.gtfs_stop_times
-    if (w.discard) return
-    const head = `${st.feedId},${st.tripCsv[trip]},`
+    const tripBytes = st.tripBytes[trip]
+    st.tripSegment[2 * trip] = w.offset
     for (let k = 0; k < n; k++) {
       const i = idx[k]
       const interp = interpolated !== null && interpolated[k]
       if (interp) st.interpolatedStopTimes++
-      const given = rows.given[i]
-      w.line(`${head}${rows.seq[i]},${st.csvStop(rows.stop[i])},${arr[k]},${dep[k]},${interp ? 't' : 'f'},${csv(rows.headsign.get(i))},${orNull(rows.pickup[i])},${orNull(rows.drop[i])},${orNull(rows.tp[i])},${Number.isNaN(given) ? '' : given},${Math.round(distM[k] * 10) / 10}`)
+      w.row(13).int(st.feedId).bytes(tripBytes).int(rows.seq[i]).bytes(st.stopBytes[rows.stop[i]]).int(arr[k]).int(dep[k]).bool(interp)
+        .text(rows.headsign.get(i)).small(rows.pickup[i]).small(rows.drop[i]).small(rows.tp[i]).float(rows.given[i]).float(Math.round(distM[k] * 10) / 10)
     }
+    st.tripSegment[2 * trip + 1] = w.offset
   }
 
   /** Metres along the trip at each stop, or null after reporting distances that go backwards. */

@@ -2,10 +2,10 @@
 // attached as the feed's partition: PostgreSQL builds its indexes in bulk and checks its foreign
 // key once, far faster than maintaining them row by row. Either every table of the feed is
 // attached and the feed marked ready, or nothing is.
-import { openAsBlob } from 'node:fs'
 import type { PGlite, Transaction } from '@electric-sql/pglite'
 import { GTFS_TABLES, type GtfsTable } from '../../db/tables/gtfs'
 import type { FeedState } from './feed-state'
+import { COPY_HEADER, COPY_TRAILER, type TableWriter } from './writer'
 import type { FeedCountsDto, FeedDerivedDto, FeedReportDto } from '../../../shared/schemas/gtfs'
 
 export const partitionName = (table: GtfsTable, feedId: number) => `${table}_f${feedId}`
@@ -27,17 +27,48 @@ export async function storeFeed(client: PGlite, st: FeedState, summary: FeedSumm
       const part = partitionName(table, st.feedId)
       // A partition of this id can only be left over from a database whose ids were reset.
       await tx.exec(`DROP TABLE IF EXISTS "${part}"; CREATE TABLE "${part}" (LIKE "${table}" INCLUDING DEFAULTS)`)
-      if (w.chunks.length) {
-        const cols = w.columns.map((c) => `"${c}"`).join(', ')
-        const blob = await openAsBlob(w.file)
-        for (const c of w.chunks) {
-          await tx.query(`COPY "${part}" (${cols}) FROM '/dev/blob' WITH (FORMAT csv)`, [], { blob: blob.slice(c.start, c.end) })
-        }
+      const cols = w.columns.map((c) => `"${c}"`).join(', ')
+      for (const chunk of table === 'gtfs_stop_times' ? stopTimesInTripOrder(st) : inFileOrder(w)) {
+        await tx.query(`COPY "${part}" (${cols}) FROM '/dev/blob' WITH (FORMAT binary)`, [], { blob: new Blob([COPY_HEADER, chunk, COPY_TRAILER] as Uint8Array<ArrayBuffer>[]) })
       }
       await tx.exec(`ALTER TABLE "${table}" ATTACH PARTITION "${part}" FOR VALUES IN (${st.feedId})`)
     }
     await markFeed(tx, st.feedId, 'ready', summary)
   })
+}
+
+function* inFileOrder(w: TableWriter): Generator<Buffer> {
+  for (const c of w.chunks) {
+    const buf = Buffer.allocUnsafe(c.end - c.start)
+    w.read(buf, 0, c.start, c.end)
+    yield buf
+  }
+}
+
+/**
+ * Stop times in trip_id order (byte order, as the "C" collation sorts), each trip's rows already
+ * in stop_sequence order: the primary key index then builds from presorted rows, several times
+ * faster than from the order of the file.
+ */
+function* stopTimesInTripOrder(st: FeedState): Generator<Buffer> {
+  const w = st.writers.gtfs_stop_times
+  const seg = st.tripSegment
+  const trips = Array.from({ length: st.tripIds.length }, (_, t) => t).filter((t) => seg[2 * t + 1] > seg[2 * t])
+  trips.sort((a, b) => Buffer.compare(st.tripBytes[a], st.tripBytes[b]))
+  const CHUNK = 16 * 1024 * 1024
+  for (let i = 0; i < trips.length;) {
+    let size = 0, j = i
+    while (j < trips.length && (size === 0 || size < CHUNK)) { size += seg[2 * trips[j] + 1] - seg[2 * trips[j]]; j++ }
+    const buf = Buffer.allocUnsafe(size)
+    let at = 0
+    for (let k = i; k < j; k++) {
+      const t = trips[k]
+      w.read(buf, at, seg[2 * t], seg[2 * t + 1])
+      at += seg[2 * t + 1] - seg[2 * t]
+    }
+    yield buf
+    i = j
+  }
 }
 
 export async function markFeed(q: PGlite | Transaction, feedId: number, state: 'ready' | 'failed', s: FeedSummary): Promise<void> {

@@ -2,7 +2,6 @@
 import type { FeedState } from './feed-state'
 import { readGtfsFile, type ReadContext, type ReadOutcome } from './read-file'
 import type { ZipEntry } from './zip'
-import { csv } from './writer'
 
 export async function readTrips(st: FeedState, ctx: ReadContext, entry: ZipEntry): Promise<ReadOutcome> {
   const file = 'trips.txt'
@@ -34,13 +33,16 @@ export async function readTrips(st: FeedState, ctx: ReadContext, entry: ZipEntry
     if (shape) st.shapeUsed.add(shape.id)
     st.tripIndex.set(r.trip_id, st.tripIds.length)
     st.tripIds.push(r.trip_id)
-    st.tripCsv.push(csv(r.trip_id))
+    st.tripBytes.push(Buffer.from(r.trip_id))
     st.tripShape.push(shape)
     st.tripRoute.push(route!)
     st.tripDirection.push(r.direction_id === '' ? -1 : Number(r.direction_id))
-    w.line(`${st.feedId},${csv(r.trip_id)},${csv(r.route_id)},${csv(r.service_id)},${csv(r.trip_headsign)},${csv(r.trip_short_name)},${r.direction_id},${csv(r.block_id)},${csv(r.shape_id)},${r.wheelchair_accessible},${r.bikes_allowed}`)
+    const n = (s: string) => (s === '' ? null : Number(s))
+    w.row(11).int(st.feedId).text(r.trip_id).text(r.route_id).text(r.service_id).text(r.trip_headsign).text(r.trip_short_name)
+      .small(n(r.direction_id)).text(r.block_id).text(r.shape_id).small(n(r.wheelchair_accessible)).small(n(r.bikes_allowed))
   })
   st.tripStopTimes = new Int32Array(st.tripIds.length)
   st.tripFirstDeparture = new Int32Array(st.tripIds.length).fill(-1)
+  st.tripSegment = new Float64Array(2 * st.tripIds.length)
   return out
 }

@@ -23,6 +23,18 @@ export const routes = [
     meta: { roles: ALL, nav: { label: 'Home', icon: 'pi pi-home', order: 0 } },
   },
   {
+    path: '/proposals', name: 'proposals', component: () => import('@/views/ProposalListView.vue'),
+    meta: { roles: ['planner', 'manager'], nav: { label: 'Proposals', icon: 'pi pi-sliders-h', order: 40 } },
+  },
+  {
+    path: '/proposals/:id', name: 'proposal', component: () => import('@/views/ProposalView.vue'),
+    meta: { roles: ['planner', 'manager'] },
+  },
+  {
+    path: '/agreement', name: 'agreement', component: () => import('@/views/AgreementView.vue'),
+    meta: { roles: ALL, nav: { label: 'Agreement', icon: 'pi pi-check-square', order: 50 } },
+  },
+  {
     path: '/people', name: 'users', component: () => import('@/views/UserListView.vue'),
     meta: { roles: ['admin'], nav: { label: 'People', icon: 'pi pi-users', order: 80 } },
   },

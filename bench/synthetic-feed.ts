@@ -32,7 +32,8 @@ export async function writeSyntheticFeed(zipPath: string, o: SyntheticOptions, s
     if (final) out.end()
   })
   const file = (name: string) => {
-    const f = new ZipDeflate(name, { level: 1, mtime: new Date('2026-09-01T00:00:00Z') })
+    const f = new ZipDeflate(name, { level: 1 })
+    f.mtime = new Date('2026-09-01T00:00:00Z')
     zip.add(f)
     let buf: string[] = []
     let size = 0

@@ -8,6 +8,8 @@ export interface VehicleToEncode {
   tripId: string
   routeId?: string
   startDate: string
+  /** For runs of a frequency-based trip. */
+  startTime?: string
   vehicleId: string
   timeS: number
   lat: number
@@ -25,7 +27,7 @@ export function encodeVehicleFeed(headerTimeS: number, vehicles: VehicleToEncode
     entity: vehicles.map((v) => ({
       id: v.entityId,
       vehicle: {
-        trip: { tripId: v.tripId, routeId: v.routeId, startDate: v.startDate },
+        trip: { tripId: v.tripId, routeId: v.routeId, startDate: v.startDate, startTime: v.startTime },
         vehicle: { id: v.vehicleId },
         position: { latitude: v.lat, longitude: v.lon, bearing: v.bearing, speed: v.speedMps },
         timestamp: v.timeS,

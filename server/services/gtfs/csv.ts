@@ -56,11 +56,12 @@ export function parseCsv(chunks: AsyncIterable<Uint8Array>, sink: CsvSink): Prom
         if (stopped) return
         try {
           const rows = results.data
-          const rowLines = results.errors.length ? new Array<number>(rows.length) : null
+          // Rows papaparse could not read are reported as such, not as rows with odd fields.
+          const quoteErrors = new Map<number, string>()
+          for (const e of results.errors) if (e.type === 'Quotes' && e.row != null && !quoteErrors.has(e.row)) quoteErrors.set(e.row, e.code)
           for (let i = 0; i < rows.length; i++) {
             const r = rows[i]
             const at = line
-            if (rowLines) rowLines[i] = at
             // Breaks inside quoted fields advance the line count of what follows.
             let extra = 0
             if (seen.quote) for (let j = 0; j < r.length; j++) {
@@ -68,6 +69,14 @@ export function parseCsv(chunks: AsyncIterable<Uint8Array>, sink: CsvSink): Prom
               if (v.length > 0 && v.indexOf('\n') >= 0) for (let k = 0; k < v.length; k++) if (v.charCodeAt(k) === 10) extra++
             }
             line += 1 + extra
+            const quote = quoteErrors.get(i)
+            if (quote) {
+              sink.malformed(at, quote === 'MissingQuotes'
+                ? 'A quoted field is not closed: the rest of the file cannot be read.'
+                : 'A quote is misplaced: a quoted field must end with a quote before the next comma.')
+              if (quote === 'MissingQuotes') { stopped = true; parser.abort(); return }
+              continue
+            }
             if (r.length === 1 && r[0].trim() === '') continue
             if (!header) {
               header = r.map((h, k) => (k === 0 ? h.replace(/^\uFEFF/, '') : h).trim())
@@ -76,14 +85,6 @@ export function parseCsv(chunks: AsyncIterable<Uint8Array>, sink: CsvSink): Prom
             }
             dataRows++
             sink.row(r, at)
-          }
-          for (const e of results.errors) {
-            if (e.type !== 'Quotes') continue
-            const at = rowLines && e.row != null && rowLines[e.row] != null ? rowLines[e.row] : line
-            sink.malformed(at, e.code === 'MissingQuotes'
-              ? 'A quoted field is not closed: the rest of the file cannot be read.'
-              : 'A quote is misplaced: a quoted field must end with a quote before the next comma.')
-            if (e.code === 'MissingQuotes') { stopped = true; parser.abort(); return }
           }
         } catch (err) {
           failed = err

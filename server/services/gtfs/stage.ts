@@ -86,6 +86,9 @@ export async function stageFeed(o: StageOptions): Promise<FeedState | null> {
       } else if (required && out.dataRows === 0) {
         findings.error('empty_file', { file, line: 2, message: 'The file has a header but no rows.' })
         broken.add(file)
+      } else if (required && out.rows === 0) {
+        // Every row was refused: checking the files that refer to it would only repeat that.
+        broken.add(file)
       }
       if (file === 'stop_times.txt' && !broken.has(file)) usageWarnings(st)
       st.noteErrors()

@@ -58,6 +58,10 @@ export const routes = [
     path: '/signals/:id', name: 'signal', component: () => import('@/views/SignalDetailView.vue'), props: true,
     meta: { roles: ALL },
   },
+  {
+    path: '/calculator', name: 'calculator', component: () => import('@/views/ApproachCalculatorView.vue'),
+    meta: { roles: ALL, nav: { label: 'Calculator', icon: 'pi pi-calculator', order: 60 } },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
 ] as const satisfies readonly RouteRecordRaw[]
 

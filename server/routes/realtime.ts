@@ -9,8 +9,10 @@ import { corridorObservations } from '../services/realtime/observations'
 import { corridorLateness } from '../services/realtime/lateness'
 import { corridorCalibration } from '../services/realtime/calibration'
 import { corridorBeforeAfter } from '../services/realtime/before-after'
+import { demoFeedUrl } from '../services/realtime/demo-feed'
+import { corridorCoverage } from '../services/realtime/coverage'
 import {
-  beforeAfterQuery, calibrationQuery, latenessQuery, observationsQuery, realtimeSourceBody, realtimeSourceParams, realtimeUploadFields,
+  beforeAfterQuery, calibrationQuery, corridorQuery, latenessQuery, observationsQuery, realtimeSourceBody, realtimeSourceParams, realtimeUploadFields,
   type BeforeAfterQuery,
 } from '../../shared/schemas/realtime'
 
@@ -32,6 +34,7 @@ export function realtimeRouter(ctx: AppContext): Router {
     res.status('jobId' in out ? 202 : 200).json(out)
   })
 
+  r.get('/demo-feed', loaders, (_req, res) => { res.json({ url: demoFeedUrl() }) })
   r.get('/sources', requireRole('planner', 'manager', 'admin'), async (_req, res) => {
     res.json(await listSources(db, currentUser(res.locals)))
   })
@@ -46,6 +49,9 @@ export function realtimeRouter(ctx: AppContext): Router {
     res.status(204).end()
   })
 
+  r.get('/coverage', readers, validate({ query: corridorQuery }), async (req, res) => {
+    res.json(await corridorCoverage(db, (req.query as unknown as { corridorId: string }).corridorId))
+  })
   r.get('/observations', readers, validate({ query: observationsQuery }), async (req, res) => {
     const q = req.query as unknown as RangeQuery
     res.json(await corridorObservations(db, q.corridorId, q.from, q.to))

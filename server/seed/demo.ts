@@ -3,6 +3,7 @@ import { organisations, users } from '../db/schema'
 import { hashPassword } from '../auth/password'
 import { DEMO_ORGANISATIONS, DEMO_USERS } from './demo-people'
 import { seedDemoProposal } from './demo-proposal'
+import { seedDemoFeed } from './demo-feed'
 
 export interface SeedOptions {
   password: string
@@ -16,6 +17,7 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   await db.insert(organisations).values([...DEMO_ORGANISATIONS]).onConflictDoNothing()
   const passwordHash = await hashPassword(options.password)
   await db.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash }))).onConflictDoNothing()
+  await seedDemoFeed(db)
   // After the feed, the signals and the demo corridor: a no-op until they exist.
   await seedDemoProposal(db)
 }

@@ -267,6 +267,7 @@ export const beforeAfterDto = z.object({
   after: z.object({ from: z.string(), to: z.string() }),
   dayType: z.enum(DAY_TYPES).nullable(),
   periodId: z.string().nullable(),
+  periods: z.array(periodDto),
   confidenceLevel: z.number(),
   resamples: z.number(),
   seed: z.number(),
@@ -274,3 +275,10 @@ export const beforeAfterDto = z.object({
   segments: z.array(beforeAfterRowDto),
 })
 export type BeforeAfterDto = z.infer<typeof beforeAfterDto>
+
+/** Service days with observations of the corridor's trips, for picking before and after ranges. */
+export const coverageDto = z.object({
+  corridorId: z.string(),
+  days: z.array(z.object({ date: z.string(), trips: z.number(), dayType: z.enum(DAY_TYPES) })),
+})
+export type CoverageDto = z.infer<typeof coverageDto>

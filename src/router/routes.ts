@@ -62,6 +62,10 @@ export const routes = [
     path: '/calculator', name: 'calculator', component: () => import('@/views/ApproachCalculatorView.vue'),
     meta: { roles: ALL, nav: { label: 'Calculator', icon: 'pi pi-calculator', order: 60 } },
   },
+  {
+    path: '/observed', name: 'observed', component: () => import('@/views/ObservedView.vue'),
+    meta: { roles: ['planner', 'engineer', 'manager'], nav: { label: 'Observed', icon: 'pi pi-chart-line', order: 70 } },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
 ] as const satisfies readonly RouteRecordRaw[]
 

@@ -220,6 +220,22 @@ describe('GET /api/realtime/before-after', () => {
   })
 })
 
+describe('GET /api/realtime/coverage and /demo-feed', () => {
+  it('lists the observed service days of the corridor with their trip counts', async () => {
+    const res = await (await t.as('manager')).get(`/api/realtime/coverage?corridorId=${fx.corridorId}`).expect(200)
+    const days = Object.fromEntries(res.body.days.map((d: { date: string; trips: number }) => [d.date, d.trips]))
+    // Monday 12th: 7-1200 and the 7-1230 position of the bad-file test; Tuesday 13th: 7-1200 and 7-1230.
+    expect(days).toMatchObject({ '2026-01-05': 1, '2026-01-09': 1, '2026-01-12': 2, '2026-01-13': 2, '2026-01-16': 1 })
+    expect(res.body.days[0]).toMatchObject({ date: '2026-01-05', dayType: 'weekday' })
+    await (await t.as('manager')).get('/api/realtime/coverage?corridorId=nope').expect(404)
+  })
+
+  it('names no local demo feed when the server process started none', async () => {
+    expect((await (await t.as('planner')).get('/api/realtime/demo-feed').expect(200)).body).toEqual({ url: null })
+    await (await t.as('engineer')).get('/api/realtime/demo-feed').expect(403)
+  })
+})
+
 describe('GET /api/realtime/calibration', () => {
   it('sets the observed signal delay beside the model baseline and suggests a volume where they disagree', async () => {
     const res = await (await t.as('engineer')).get(`/api/realtime/calibration?corridorId=${fx.corridorId}&from=2026-01-05&to=2026-01-09`).expect(200)

@@ -46,6 +46,7 @@ export async function corridorBeforeAfter(db: Db, q: BeforeAfterQuery): Promise<
     after: { from: q.afterFrom, to: q.afterTo },
     dayType: q.dayType ?? null,
     periodId: q.periodId ?? null,
+    periods: before.corridor.periods,
     confidenceLevel: LEVEL,
     resamples: BOOTSTRAP_RESAMPLES,
     seed: BOOTSTRAP_SEED,

@@ -9,6 +9,7 @@ import { minimalFeed, zipFeed, type FeedFiles } from '../support/gtfs-fixtures'
 import { writeSyntheticFeed } from '../../bench/synthetic-feed'
 import { GTFS_TABLES } from '../../server/db/tables/gtfs'
 import { haversineM } from '../../shared/gtfs/geo'
+import { DEMO_FEED_NAME, seedDemoFeed } from '../../server/seed/demo-feed'
 
 let t: TestApp
 beforeAll(async () => { t = await startTestApp() })
@@ -337,5 +338,34 @@ describe('DELETE /api/feeds/:id', () => {
     const { feedId } = await importOf(planner, Buffer.from('not a zip'))
     await (await t.as('admin')).delete(`/api/feeds/${feedId}`).expect(204)
     await planner.get(`/api/feeds/${feedId}`).expect(404)
+  })
+})
+
+describe('the demo feed', () => {
+  it('is seeded once through the real import, and seeding again adds nothing', async () => {
+    const planner = await t.as('planner')
+    const demo = (await planner.get('/api/feeds').expect(200)).body.filter((f: { name: string }) => f.name === DEMO_FEED_NAME)
+    expect(demo).toHaveLength(1)
+    expect(demo[0]).toMatchObject({ state: 'ready', errorCount: 0, serviceStart: '2026-09-07', serviceEnd: '2027-09-05' })
+    expect(await seedDemoFeed(t.database.db)).toBe(demo[0].id)
+    expect((await planner.get('/api/feeds').expect(200)).body.filter((f: { name: string }) => f.name === DEMO_FEED_NAME)).toHaveLength(1)
+    const routes = (await planner.get(`/api/feeds/${demo[0].id}/routes`).expect(200)).body
+    expect(routes.map((r: { shortName: string; longName: string }) => `${r.shortName} ${r.longName}`))
+      .toEqual(['7 Kestrel Avenue', '17 Kestrel Express', '21 Fernhill Circular', '34 Saltmarsh Lane'])
+  })
+
+  it('places every signalised intersection of sample-feeds/README.md on the corridor shape, at the distance it states', async () => {
+    const [demo] = (await (await t.as('planner')).get('/api/feeds').expect(200)).body.filter((f: { name: string }) => f.name === DEMO_FEED_NAME)
+    const readme = readFileSync(new URL('../../sample-feeds/README.md', import.meta.url), 'utf8')
+    const rows = readme.split('\n').filter((l) => /^\| \d+ \| (Kestrel Avenue|Harbour Road) & /.test(l)).map((l) => l.split('|').map((c) => c.trim()))
+    expect(rows).toHaveLength(10)
+    expect(rows.filter((r) => r[3] === 'City of Brackenford')).toHaveLength(6)
+    for (const r of rows) {
+      const [lat, lon, along] = [Number(r[4]), Number(r[5]), Number(r[6].replace(/ /g, ''))]
+      const hit = await q<{ dist_m: number }>(
+        `select dist_m from gtfs_shapes where feed_version_id = $1 and shape_id = '7-E' and shape_pt_lat = $2 and shape_pt_lon = $3`, [demo.id, lat, lon])
+      expect(hit, r[2]).toHaveLength(1)
+      expect(Math.abs(hit[0].dist_m - along)).toBeLessThanOrEqual(0.5)
+    }
   })
 })

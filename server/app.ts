@@ -23,6 +23,9 @@ import { feedsRouter } from './routes/feeds'
 import { proposalsRouter } from './routes/proposals'
 import { realtimeRouter } from './routes/realtime'
 import { modelRouter } from './routes/model'
+import { sweepRouter } from './routes/sweep'
+import { suggestRouter } from './routes/suggest'
+import { citiesRouter } from './routes/cities'
 import type { GtfsLimits } from './services/gtfs/limits'
 
 export interface AppOptions {
@@ -81,8 +84,11 @@ export function createApp(options: AppOptions) {
   app.use('/api/corridors', corridorsRouter(ctx))
   app.use('/api/feeds', feedsRouter(ctx))
   app.use('/api/proposals', proposalsRouter(ctx))
+  app.use('/api/proposals', suggestRouter(ctx))
   app.use('/api/realtime', realtimeRouter(ctx))
+  app.use('/api/model/sweep', sweepRouter(ctx))
   app.use('/api/model', modelRouter())
+  app.use('/api/cities', citiesRouter(ctx))
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))
 

@@ -4,6 +4,7 @@ import { hashPassword } from '../auth/password'
 import { DEMO_ORGANISATIONS, DEMO_USERS } from './demo-people'
 import { seedDemoProposal } from './demo-proposal'
 import { seedDemoFeed } from './demo-feed'
+import { seedDemoLimits } from './demo-limits'
 
 export interface SeedOptions {
   password: string
@@ -18,6 +19,7 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   const passwordHash = await hashPassword(options.password)
   await db.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash }))).onConflictDoNothing()
   await seedDemoFeed(db)
+  await seedDemoLimits(db)
   // After the feed, the signals and the demo corridor: a no-op until they exist.
   await seedDemoProposal(db)
 }

@@ -101,6 +101,20 @@ export function redQueue(ex: ExactApproach, field: QueueField, i: number): RedQu
   }
 }
 
+/**
+ * Back of the stopped queue of red i at time t, m from the line (0 when none stands): the farthest
+ * d inside the polygon, min(u (t - t*), w (t - r0)), while the discharge wave w (t - r1) has not
+ * passed it.
+ */
+export function queueBackM(ex: ExactApproach, field: QueueField, i: number, t: number): number {
+  const r0 = field.plan.redStart[i]
+  const r1 = field.plan.redEnd[i]
+  if (t < r0) return 0
+  const back = Math.min(ex.u * (t - field.tStar[i]), ex.w * (t - r0))
+  const front = Math.max(0, ex.w * (t - r1))
+  return back > front ? back : 0
+}
+
 export interface RedGreen {
   /** vehicle-seconds of queue over the red and the green */
   area: number

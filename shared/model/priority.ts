@@ -11,6 +11,10 @@
  * E and A are first capped by what the cross street can give (see cross-street.ts), so a grant
  * never takes the cross street below its minimum green or its pedestrian walk + clearance.
  * The controller is taken to predict the bus's own path exactly (deterministic model).
+ * Near-side stops: a request from upstream of the stop would have to guess the dwell, so the bus
+ * asks when its doors close (bus.ts). The extension then has only the run from the stop to the
+ * line to work with, and a bus that closes its doors after the green has ended can only get an
+ * early green; this is why near-side stops save less.
  *
  * Lockout and lateness act on the share of buses that may ask: after a grant no other grant for N
  * cycles; requests come from busesPerHour buses (Poisson), so a bus finds the signal locked with

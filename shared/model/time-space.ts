@@ -3,7 +3,7 @@
  * the start of the first red, the arrival state everywhere at t = 0), the signal at the stop
  * line, and one bus through it without and with priority.
  */
-import type { ApproachResult, TimeSpaceInput, TimeSpaceResult } from '../schemas/model'
+import type { ApproachInput, ApproachResult, TimeSpaceResult } from '../schemas/model'
 import { signalIntervals, fixedTimePlan, type SignalPlan } from './boundary'
 import { freeRunS, freeTimeToLineS } from './bus'
 import { type BusModel, decidePriority } from './priority'
@@ -14,18 +14,32 @@ import { evaluateApproach } from './approach'
 /** Rows kept for the chart at most (the field is sampled in time to this). */
 const MAX_ROWS = 600
 
-export function timeSpace(input: TimeSpaceInput, evaluation?: ApproachResult): TimeSpaceResult {
+export interface TimeSpaceOptions {
+  /** whole cycles shown (default 2) */
+  cycles?: number
+  /** cell size, m (default 5) */
+  dxM?: number
+  /** the bus drawn; default: the arrival phase where priority saves most */
+  busArrivalPhaseS?: number
+  /** the approach's evaluation, when already at hand (it picks the default phase) */
+  evaluation?: ApproachResult
+}
+
+/** Options come from the time-space body's fields, or from `options`, which wins. */
+export function timeSpace(input: ApproachInput & TimeSpaceOptions, options: TimeSpaceOptions = {}): TimeSpaceResult {
+  const cycles = options.cycles ?? input.cycles ?? 2
+  const dxM = options.dxM ?? input.dxM ?? 5
   const p = prepareApproach(input)
   const C = p.cycleS
-  const windowS = input.cycles * C
-  const phase = input.busArrivalPhaseS ?? defaultPhase(evaluation ?? evaluateApproach(input))
+  const windowS = cycles * C
+  const phase = options.busArrivalPhaseS ?? input.busArrivalPhaseS ?? defaultPhase(options.evaluation ?? evaluateApproach(input))
   const tLine = freeTimeToLineS(p.bus)
   // the bus in the second cycle when there is one, and never before t = 0
-  let virtualArrival = phase + (input.cycles >= 2 ? C : 0)
+  let virtualArrival = phase + (cycles >= 2 ? C : 0)
   while (virtualArrival - tLine < 0) virtualArrival += C
   const start = virtualArrival - tLine
   const horizon = Math.max(windowS, start + freeRunS(p.bus) + 3 * C)
-  const grid = approachGrid(input.approach.lengthM, input.approach.downstreamLengthM, input.dxM)
+  const grid = approachGrid(input.approach.lengthM, input.approach.downstreamLengthM, dxM)
   const plan = fixedTimePlan(C, p.greenS, 0, Math.ceil(horizon / C) + 2)
   const field = simulateField(p.diagram, grid, plan, p.qa, horizon)
   const model: BusModel = { run: (pl, record) => runBusField(cursorFor(field, pl), field, pl, p.bus, start, record) }

@@ -45,7 +45,7 @@ export function useApproachCalculator() {
       const phase = chartPhaseS.value !== null && chartPhaseS.value < input.signal.cycleS ? chartPhaseS.value : undefined
       const tsInput = timeSpaceBody.parse({ ...input, cycles: 2, dxM, busArrivalPhaseS: phase })
       result.value = evaluation
-      field.value = checkTimeSpace(tsInput).length ? null : timeSpace(tsInput, evaluation)
+      field.value = checkTimeSpace(tsInput).length ? null : timeSpace(tsInput, { evaluation })
     } catch (e) {
       result.value = null
       field.value = null

@@ -152,6 +152,13 @@ describe('the time-space field', () => {
     expect(row[80]).toBeLessThan(1)
   })
 
+  it('takes the cycles, cell size and bus from options over the body', () => {
+    const one = timeSpace(input, { cycles: 1, dxM: 10, busArrivalPhaseS: 20 })
+    expect(one.xM.filter((x) => x < 0)).toHaveLength(40)
+    expect(one.signal.at(-1)!.endS).toBe(60)
+    expect(one.bus.arrivalPhaseS).toBe(20)
+  })
+
   it('with a near-side stop sends the request at door close, too late for the extension', () => {
     const near = timeSpace({ ...input, busArrivalPhaseS: 3 })
     expect(near.bus.action).toBe('early-green')

@@ -5,6 +5,7 @@ import { DEMO_ORGANISATIONS, DEMO_USERS } from './demo-people'
 import { seedDemoProposal } from './demo-proposal'
 import { seedDemoFeed } from './demo-feed'
 import { seedDemoLimits } from './demo-limits'
+import { seedDemoSignals } from './demo-signals'
 
 export interface SeedOptions {
   password: string
@@ -18,7 +19,8 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   await db.insert(organisations).values([...DEMO_ORGANISATIONS]).onConflictDoNothing()
   const passwordHash = await hashPassword(options.password)
   await db.insert(users).values(DEMO_USERS.map((u) => ({ ...u, passwordHash }))).onConflictDoNothing()
-  await seedDemoFeed(db)
+  const feedId = await seedDemoFeed(db)
+  await seedDemoSignals(db, feedId)
   await seedDemoLimits(db)
   // After the feed, the signals and the demo corridor: a no-op until they exist.
   await seedDemoProposal(db)

@@ -291,7 +291,7 @@ describe('POST /api/proposals/:id/rows/:rowId/decision', () => {
     expect(res.body.history.at(-1)).toMatchObject({ kind: 'accepted', statusFrom: 'submitted', statusTo: 'accepted', actor: { name: 'Dario Fenwick', organisationName: 'City of Brackenford' }, comment: 'Fine at this signal.' })
     const mail = (await outbox()).filter((m) => m.to === 'planner@fanlight.test')
     expect(mail).toHaveLength(1)
-    expect(mail[0].subject).toBe('City of Brackenford: Main St & First Ave agreed')
+    expect(mail[0].subject).toBe('City of Brackenford agreed: Main St & First Ave')
     expect(mail[0].text).toContain('Fine at this signal.')
   })
 

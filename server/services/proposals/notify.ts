@@ -44,10 +44,10 @@ export async function notifyDecision(db: DbOrTx, mailer: Mailer, p: { id: string
     const u = await userById(db, id)
     if (u?.active) people.set(u.id, u)
   }
-  const what = `${ROW_STATUS_LABELS[row.status].toLowerCase()}`
+  const verb: Partial<Record<ProposalRowDto['status'], string>> = { accepted: 'agreed', rejected: 'refused', 'change-requested': 'asks for a change' }
   await sendAll(mailer, [...people.values()].map((u) => ({
     to: u.email,
-    subject: `${cityName}: ${row.intersectionName} ${what}`,
+    subject: `${cityName} ${verb[row.status] ?? ROW_STATUS_LABELS[row.status].toLowerCase()}: ${row.intersectionName}`,
     text: `Hello ${u.name},\n\n${by.name} (${cityName}) decided row ${row.position}, ${row.intersectionName}, of "${p.name}": ${ROW_STATUS_LABELS[row.status]}.\n` +
       `Proposed: ${settingsSummary(row.settings)}\n` +
       (row.counter ? `Counter values: ${counterSummary(row.counter)}\n` : '') +

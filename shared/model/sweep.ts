@@ -63,6 +63,20 @@ interface PairFigures {
   mainChangePerGrantVehS: number
 }
 
+/** A memo keyed by a pair of limits (numbers, not strings: looked up for every point). */
+function pairMemo<T>() {
+  const rows = new Map<number, Map<number, T>>()
+  return {
+    get: (e: number, a: number): T | undefined => rows.get(e)?.get(a),
+    set(e: number, a: number, v: T): void {
+      let row = rows.get(e)
+      if (!row) rows.set(e, (row = new Map()))
+      row.set(a, v)
+    },
+    size: () => [...rows.values()].reduce((n, r) => n + r.size, 0),
+  }
+}
+
 const fromResult = (r: ApproachResult): PairFigures => ({
   grantShare: r.bus.priority.grantShare,
   savingS: r.bus.meanSavingS,
@@ -85,19 +99,18 @@ export function sweepEvaluator(input: ApproachInput, limits: CityLimits = NO_CIT
   const crossPerHour = perSToPerHour(cr.q)
   const crossSatPerHour = perSToPerHour(cr.s)
   const maxCycles = Math.max(4, Math.ceil(p.periodS / C))
-  const runs = new Map<string, ApproachResult>()
-  const pairs = new Map<string, PairFigures>()
+  const runs = pairMemo<ApproachResult>()
+  const pairs = pairMemo<PairFigures>()
 
   const run = (e: number, a: number): ApproachResult => {
-    const key = `${e}|${a}`
-    let r = runs.get(key)
+    let r = runs.get(e, a)
     if (!r) {
       const strategy: PriorityStrategy = e > 0 && a > 0 ? 'both' : e > 0 ? 'green-extension' : a > 0 ? 'early-green' : 'none'
       r = evaluateApproach({
         ...input,
         priority: { ...input.priority, strategy, maxExtensionS: e, maxEarlyGreenS: a, lockoutCycles: 0, lateOnly: false },
       }, { solver: 'exact' })
-      runs.set(key, r)
+      runs.set(e, a, r)
     }
     return r
   }
@@ -106,16 +119,17 @@ export function sweepEvaluator(input: ApproachInput, limits: CityLimits = NO_CIT
   const composable = none.traffic.degreeOfSaturation < 1
 
   // what each distinct grant costs the cross street and gives the bus approach, as the model works it out
-  const effects = new Map<string, [number, number]>()
-  const effectOf = (action: PriorityAction, taken: number): [number, number] => {
-    const key = action + taken
-    let e = effects.get(key)
+  // (keyed by number: the green taken varies by phase, and formatting it as a string costs more than the effect)
+  const effects = { 'green-extension': new Map<number, [number, number]>(), 'early-green': new Map<number, [number, number]>() }
+  const effectOf = (action: Exclude<PriorityAction, 'none'>, taken: number): [number, number] => {
+    const memo = effects[action]
+    let e = memo.get(taken)
     if (!e) {
       e = [
         grantEffect(cr.q, cr.s, cr.redS, cr.greenS, crossStreetChanges(action, taken), maxCycles).extraVehS,
         grantEffect(p.qa, p.s, p.redS, p.greenS, busApproachChanges(action, taken), maxCycles).extraVehS,
       ]
-      effects.set(key, e)
+      memo.set(taken, e)
     }
     return e
   }
@@ -149,13 +163,12 @@ export function sweepEvaluator(input: ApproachInput, limits: CityLimits = NO_CIT
   }
 
   const pair = (e: number, a: number): PairFigures => {
-    const key = `${e}|${a}`
-    let f = pairs.get(key)
+    let f = pairs.get(e, a)
     if (!f) {
       f = e > 0 && a > 0 && composable
         ? compose(run(e, 0).delayByArrivalPhase, run(0, a).delayByArrivalPhase)
         : fromResult(run(e, a))
-      pairs.set(key, f)
+      pairs.set(e, a, f)
     }
     return f
   }
@@ -232,7 +245,7 @@ export function sweepEvaluator(input: ApproachInput, limits: CityLimits = NO_CIT
     return { settings, busSavingPerTripS, crossExtraDelayPerVehS, personDelayBalanceS, vcAfter, losAfter, grantsPerHour, violations }
   }
 
-  return { point, baseline, runs: () => runs.size }
+  return { point, baseline, runs: () => runs.size() }
 }
 
 /** The grid of a sweep, in its fixed order: no priority first, then each strategy. */

@@ -66,6 +66,14 @@ export const routes = [
     path: '/observed', name: 'observed', component: () => import('@/views/ObservedView.vue'),
     meta: { roles: ['planner', 'engineer', 'manager'], nav: { label: 'Observed', icon: 'pi pi-chart-line', order: 70 } },
   },
+  {
+    path: '/feeds', name: 'feeds', component: () => import('@/views/FeedListView.vue'),
+    meta: { roles: ['planner', 'manager', 'admin'], nav: { label: 'Feeds', icon: 'pi pi-database', order: 10 } },
+  },
+  {
+    path: '/feeds/:id', name: 'feed', component: () => import('@/views/FeedDetailView.vue'), props: true,
+    meta: { roles: ['planner', 'manager', 'admin'] },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
 ] as const satisfies readonly RouteRecordRaw[]
 

@@ -67,7 +67,7 @@ export async function importFeedFromFile(db: Db, input: ImportInput, report: Rep
       progress: (stage, fraction) => report({ stage, progress: 0.02 + 0.73 * Math.min(1, fraction) }),
     })
     if (!st || findings.errorCount > 0) {
-      await markFeed(db.$client, feedId, 'failed', summarise(st, findings.toReport()))
+      await markFeed(db.$client, feedId, 'failed', { ...summarise(st, findings.toReport()), serviceStart: null, serviceEnd: null })
       throw failure(feedId, findings)
     }
     await report({ stage: 'writing to the database', progress: 0.78 })

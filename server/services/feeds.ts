@@ -108,7 +108,15 @@ export async function getFeed(db: Db, user: User, id: number): Promise<FeedDetai
 export async function deleteFeed(db: Db, user: User, id: number): Promise<void> {
   const row = await visibleFeed(db, user, id)
   if (row.state === 'importing') throw new Conflict('The feed is still being imported; delete it once the import has finished.')
-  await dropFeed(db.$client, id)
+  try {
+    await dropFeed(db.$client, id)
+  } catch (err) {
+    // Corridors (and what hangs off them) keep their feed version: no cascade on purpose.
+    if ((err as { code?: string }).code === '23503') {
+      throw new Conflict('Corridors use this feed version; delete them (or move them to another feed) first.')
+    }
+    throw err
+  }
 }
 
 async function readyFeed(db: Db, user: User, id: number) {

@@ -333,6 +333,21 @@ describe('DELETE /api/feeds/:id', () => {
     expect((await planner.get('/api/feeds').expect(200)).body.some((f: { id: number }) => f.id === feedId)).toBe(false)
   })
 
+  it('refuses (409) to delete a version that corridors use, and keeps all of it', async () => {
+    const planner = await t.as('planner')
+    const { feedId } = await importOf(planner, zipFeed(minimalFeed()))
+    const before = await leftOf(t, feedId)
+    await t.database.client.query(
+      `insert into corridors (id, agency_id, feed_version_id, name, route_ids, direction_id, shape_id, length_m)
+       values ('corridor-feeds-test', 'org-lindenmere', $1, 'Test corridor', '{R1}', 0, 'SH1', 2250)`, [feedId])
+    const res = await planner.delete(`/api/feeds/${feedId}`).expect(409)
+    expect(res.body.message).toMatch(/Corridors use this feed version/)
+    expect(await leftOf(t, feedId)).toEqual(before)
+    await planner.get(`/api/feeds/${feedId}/routes`).expect(200)
+    await t.database.client.query(`delete from corridors where id = 'corridor-feeds-test'`)
+    await planner.delete(`/api/feeds/${feedId}`).expect(204)
+  })
+
   it('lets admin delete a failed version too', async () => {
     const planner = await t.as('planner')
     const { feedId } = await importOf(planner, Buffer.from('not a zip'))

@@ -5,7 +5,6 @@
 import { mkdtemp, rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
-import { eq } from 'drizzle-orm'
 import type { Db } from '../../db'
 import { feedVersions } from '../../db/schema'
 import type { ReportProgress } from '../jobs'
@@ -111,12 +110,5 @@ function summarise(st: FeedState | null, report: FeedReportDto): FeedSummary {
     report,
     serviceStart: st?.serviceStart != null ? isoDate(st.serviceStart) : null,
     serviceEnd: st?.serviceEnd != null ? isoDate(st.serviceEnd) : null,
-  }
-}
-
-/** Feed versions left 'importing' by a process that stopped mid-import. */
-export async function failInterruptedImports(db: Db, feedIds: number[]): Promise<void> {
-  for (const id of feedIds) {
-    await db.update(feedVersions).set({ state: 'failed' }).where(eq(feedVersions.id, id))
   }
 }

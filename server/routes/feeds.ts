@@ -1,7 +1,8 @@
 import { mkdirSync } from 'node:fs'
+import { rm } from 'node:fs/promises'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
-import { Router } from 'express'
+import { Router, type ErrorRequestHandler } from 'express'
 import multer from 'multer'
 import type { AppContext } from '../context'
 import { currentUser, requireRole } from '../auth/middleware'
@@ -41,5 +42,11 @@ export function feedsRouter(ctx: AppContext): Router {
     const p = req.params as unknown as { id: number; shapeId: string }
     res.json(await feedShape(ctx.db, currentUser(res.locals), p.id, p.shapeId))
   })
+  // An upload refused after multer stored it (bad fields) must not stay in the scratch folder.
+  const dropUpload: ErrorRequestHandler = (err, req, _res, next) => {
+    if (req.file) void rm(req.file.path, { force: true })
+    next(err)
+  }
+  r.use(dropUpload)
   return r
 }

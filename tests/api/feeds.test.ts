@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import request from 'supertest'
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { zipSync, strToU8 } from 'fflate'
@@ -153,8 +153,12 @@ describe('roles and bad requests', () => {
     const planner = await t.as('planner')
     const none = await planner.post('/api/feeds').field('name', 'no file').expect(422)
     expect(none.body.issues[0].path).toEqual(['file'])
+    const scratch = path.join(tmpdir(), 'fanlight-uploads')
+    const before = new Set(readdirSync(scratch))
     const extra = await planner.post('/api/feeds').field('colour', 'red').attach('file', zipFeed(minimalFeed()), 'f.zip').expect(422)
     expect(JSON.stringify(extra.body.issues)).toContain('colour')
+    // The refused upload does not stay in the scratch folder.
+    await expect.poll(() => readdirSync(scratch).filter((f) => !before.has(f)), { timeout: 10_000 }).toEqual([])
   })
 })
 

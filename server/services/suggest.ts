@@ -21,7 +21,7 @@ import { rowModelInput } from '../../shared/proposals/model-input'
 import { checkPriority, type PlanForCheck } from '../../shared/proposals/priority-checks'
 import { SOURCES } from '../../shared/signals/limits'
 import { transition } from '../../shared/proposals/row-state'
-import { usesEarlyGreen, usesExtension } from '../../shared/proposals/settings'
+import { rowSettingsWith } from '../../shared/proposals/sweep-settings'
 import { loadEvaluationContext, planForPeriod, tripsAtApproach, type EvaluationContext } from './proposals/evaluation-context'
 import { assertMayPlan, proposalRecord, rowRecord, settingsOf, type RowRecord } from './proposals/records'
 import { rowDtos } from './proposals/dto'
@@ -75,21 +75,12 @@ function periodInputs(ctx: EvaluationContext, row: RowRecord, dayType: DayType):
   return { inputs, skipped }
 }
 
-const rowSettingsOf = (s: SweepSettings, row: RowSettings): RowSettings => ({
-  strategy: s.strategy,
-  // a limit the strategy does not use keeps the row's value (no change to record)
-  maxExtensionS: usesExtension(s) ? s.maxExtensionS : row.maxExtensionS,
-  maxEarlyGreenS: usesEarlyGreen(s) ? s.maxEarlyGreenS : row.maxEarlyGreenS,
-  lockoutCycles: s.strategy === 'none' ? row.lockoutCycles : s.lockoutCycles,
-  conditional: { ...row.conditional, onlyLateBuses: s.strategy === 'none' ? row.conditional.onlyLateBuses : s.lateOnly },
-})
-
 /**
  * The row's own checks against every timing plan of the intersection (plans of other day types
  * too), which an edit must pass: a setting that fails one is marked as breaking that floor.
  */
 function planChecks(grid: readonly SweepSettings[], plans: readonly PlanForCheck[], row: RowSettings): SweepPoint['violations'][] {
-  return grid.map((s) => checkPriority(rowSettingsOf(s, row), plans).filter((c) => c.severity === 'error').map((c) => ({
+  return grid.map((s) => checkPriority(rowSettingsWith(s, row), plans).filter((c) => c.severity === 'error').map((c) => ({
     constraint: (c.source === SOURCES.pedestrian ? 'ped-walk-clearance' : 'min-green') as ConstraintKind,
     detail: c.message,
   })))
@@ -144,7 +135,7 @@ export async function suggestSettings(
     const { recommendation, skipped } = suggestRow(ctx, row, limitsByCity.get(x.cityId)!, body)
     if (!recommendation) { out.push({ ...base, skipped }); continue }
     if (!recommendation.feasible) { out.push({ ...base, recommendation, skipped: recommendation.summary }); continue }
-    const next = rowSettingsOf(recommendation.settings, settingsOf(row))
+    const next = rowSettingsWith(recommendation.settings, settingsOf(row))
     try {
       const dto = await patchRow(db, actor, proposalId, row.id, {
         version: row.version, strategy: next.strategy, maxExtensionS: next.maxExtensionS, maxEarlyGreenS: next.maxEarlyGreenS,

@@ -324,3 +324,26 @@ export function recommendPeriods(periods: readonly PeriodCase[], ranges: SweepRa
   })
   return recommend(cases, recommendOptions(ranges, limits, objective))
 }
+
+/**
+ * The best trade-offs of a sweep: the points within every limit that no other such point beats on
+ * both the bus saving (higher) and the cross-street delay (lower), one per distinct pair of
+ * figures (the simplest settings giving it), by rising bus saving.
+ */
+export function tradeOffFront(points: readonly SweepPoint[]): SweepPoint[] {
+  const tol = 1e-9
+  const order = points
+    .map((p, i) => ({ p, i }))
+    .filter(({ p }) => p.violations.length === 0)
+    .sort((a, b) => a.p.crossExtraDelayPerVehS - b.p.crossExtraDelayPerVehS || b.p.busSavingPerTripS - a.p.busSavingPerTripS
+      || usedGreenS(a.p.settings) - usedGreenS(b.p.settings) || b.p.settings.lockoutCycles - a.p.settings.lockoutCycles || a.i - b.i)
+  const out: SweepPoint[] = []
+  let best = -Infinity
+  for (const { p } of order) {
+    if (p.busSavingPerTripS > best + tol) {
+      out.push(p)
+      best = p.busSavingPerTripS
+    }
+  }
+  return out
+}

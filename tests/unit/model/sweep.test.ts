@@ -267,3 +267,24 @@ describe('one setting for several periods', () => {
     expect(midday.objectiveValue * 4).toBeGreaterThanOrEqual(rec.cases[1].point.personDelayBalanceS * 4 - 1e-9)
   })
 })
+
+describe('the best trade-offs', () => {
+  it('keeps the points within the limits that no other beats on both figures', async () => {
+    const { tradeOffFront } = await import('../../../shared/model/recommend')
+    const points = sweepApproach(parse(APPROACHES.busyCross), ranges({ stepS: 2 }), { ...NO_CITY_LIMITS, maxCrossVc: 0.88 }).points
+    const front = tradeOffFront(points)
+    expect(front.length).toBeGreaterThan(2)
+    const ok = points.filter((p) => !p.violations.length)
+    for (const f of front) {
+      expect(f.violations).toEqual([])
+      // nothing within the limits saves the bus more for no more cross-street delay
+      expect(ok.some((p) => p.busSavingPerTripS > f.busSavingPerTripS + 1e-9 && p.crossExtraDelayPerVehS <= f.crossExtraDelayPerVehS + 1e-12)).toBe(false)
+    }
+    for (let i = 1; i < front.length; i++) {
+      expect(front[i].busSavingPerTripS).toBeGreaterThan(front[i - 1].busSavingPerTripS)
+      expect(front[i].crossExtraDelayPerVehS).toBeGreaterThanOrEqual(front[i - 1].crossExtraDelayPerVehS)
+    }
+    // every point within the limits is matched or beaten by one on the front
+    for (const p of ok) expect(front.some((f) => f.busSavingPerTripS >= p.busSavingPerTripS - 1e-9 && f.crossExtraDelayPerVehS <= p.crossExtraDelayPerVehS + 1e-12)).toBe(true)
+  })
+})

@@ -16,7 +16,10 @@ export default defineConfig({
       { resolve: { alias }, test: { name: 'reference', include: ['tests/reference/**/*.test.ts'], environment: 'node' } },
       {
         resolve: { alias },
-        test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 120_000 },
+        test: {
+          name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 120_000,
+          globalSetup: ['tests/support/global-setup.ts'],
+        },
       },
       {
         plugins: [vue()],

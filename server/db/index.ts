@@ -18,11 +18,12 @@ const migrationsFolder = fileURLToPath(new URL('../../drizzle', import.meta.url)
 
 /**
  * Opens PGlite on a data directory (created if missing) or in memory when dataDir is 'memory',
- * and applies the drizzle-kit migrations.
+ * and applies the drizzle-kit migrations (a no-op for those already applied).
  */
-export async function openDatabase(dataDir: string): Promise<Database> {
+export async function openDatabase(dataDir: string, options: { loadDataDir?: Blob } = {}): Promise<Database> {
   if (dataDir !== 'memory') mkdirSync(dataDir, { recursive: true })
-  const client = dataDir === 'memory' ? new PGlite() : new PGlite(dataDir)
+  // loadDataDir starts from a dump (dumpDataDir) instead of an empty cluster: tests use it to skip seeding.
+  const client = dataDir === 'memory' ? new PGlite({ loadDataDir: options.loadDataDir }) : new PGlite(dataDir, { loadDataDir: options.loadDataDir })
   await client.waitReady
   const db = drizzle({ client, schema })
   await migrate(db, { migrationsFolder })

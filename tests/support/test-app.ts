@@ -1,14 +1,13 @@
 import request from 'supertest'
 import type { Express } from 'express'
-import { sql } from 'drizzle-orm'
 import { openDatabase, type Database } from '../../server/db'
 import { createApp, type AppOptions } from '../../server/app'
 import { createSmtpMailer, type Mailer } from '../../server/services/mail'
 import { startFakeSmtp, type FakeSmtp } from '../../server/services/fake-smtp'
-import { seedDemo } from '../../server/seed/demo'
+import { DEMO_PASSWORD, seedSnapshot } from './seed-snapshot'
 import type { Role } from '../../shared/roles'
 
-export const DEMO_PASSWORD = 'fanlight-demo'
+export { DEMO_PASSWORD }
 export const DEMO_EMAIL: Record<'planner' | 'engineer' | 'engineer2' | 'manager' | 'admin', string> = {
   planner: 'planner@fanlight.test',
   engineer: 'engineer@fanlight.test',
@@ -25,49 +24,48 @@ export interface TestApp {
   smtp: FakeSmtp
   /** A supertest agent signed in as one of the demo accounts (cookie kept). */
   as(account: DemoAccount): Promise<ReturnType<typeof request.agent>>
-  /** Empties every table and re-seeds the demo people (one database per test file). */
+  /** Starts again from the freshly seeded demo scenario (one database per test file, reset between tests). */
   reset(): Promise<void>
   close(): Promise<void>
 }
 
 /**
- * The real app over a real in-memory PGlite with the real migrations and the local fake SMTP.
- * Build one per test file (PGlite start-up costs seconds) and call reset() between tests when needed.
+ * The real app over a real in-memory PGlite with the real migrations, the seeded demo scenario and
+ * the local fake SMTP. Build one per test file and call reset() between tests when needed; both
+ * start from a dump of the seeded database, made once per run by the global setup.
  */
 export async function startTestApp(overrides: Partial<AppOptions> = {}): Promise<TestApp> {
-  const database = await openDatabase('memory')
-  const smtp = await startFakeSmtp(database.db)
-  const mailer = createSmtpMailer(smtp.url)
-  await seedDemo(database.db, { password: DEMO_PASSWORD })
-  const app = createApp({ db: database.db, mailer, clientDir: null, loginRateLimit: { windowMs: 60_000, limit: 1000 }, ...overrides })
   const agents = new Map<DemoAccount, ReturnType<typeof request.agent>>()
-  return {
-    app,
-    database,
-    mailer,
-    smtp,
+  async function build() {
+    const database = await openDatabase('memory', { loadDataDir: await seedSnapshot() })
+    const smtp = await startFakeSmtp(database.db)
+    const mailer = createSmtpMailer(smtp.url)
+    const app = createApp({ db: database.db, mailer, clientDir: null, loginRateLimit: { windowMs: 60_000, limit: 1000 }, ...overrides })
+    return { database, smtp, mailer, app }
+  }
+  async function teardown(parts: { database: Database; smtp: FakeSmtp; mailer: Mailer }) {
+    parts.mailer.close()
+    await parts.smtp.close()
+    await parts.database.close()
+  }
+  const t: TestApp = {
+    ...(await build()),
     async as(account) {
       const cached = agents.get(account)
       if (cached) return cached
-      const agent = request.agent(app)
+      const agent = request.agent(t.app)
       await agent.post('/api/auth/login').send({ email: DEMO_EMAIL[account], password: DEMO_PASSWORD }).expect(200)
       agents.set(account, agent)
       return agent
     },
     async reset() {
       agents.clear()
-      const { rows } = await database.client.query<{ tablename: string }>(
-        `select tablename from pg_tables where schemaname = 'public'`,
-      )
-      if (rows.length) await database.db.execute(sql.raw(`truncate ${rows.map((r) => `"${r.tablename}"`).join(', ')} restart identity cascade`))
-      await seedDemo(database.db, { password: DEMO_PASSWORD })
+      await teardown(t)
+      Object.assign(t, await build())
     },
-    async close() {
-      mailer.close()
-      await smtp.close()
-      await database.close()
-    },
+    close: () => teardown(t),
   }
+  return t
 }
 
 export const ALL_ROLES: Role[] = ['planner', 'engineer', 'manager', 'admin']

@@ -23,6 +23,7 @@ import { feedsRouter } from './routes/feeds'
 import { proposalsRouter } from './routes/proposals'
 import { realtimeRouter } from './routes/realtime'
 import { modelRouter } from './routes/model'
+import { dashboardRouter, proposalReportRouter } from './routes/dashboard'
 import { sweepRouter } from './routes/sweep'
 import { suggestRouter } from './routes/suggest'
 import { citiesRouter } from './routes/cities'
@@ -83,11 +84,13 @@ export function createApp(options: AppOptions) {
   app.use('/api/intersections', intersectionsRouter(ctx))
   app.use('/api/corridors', corridorsRouter(ctx))
   app.use('/api/feeds', feedsRouter(ctx))
+  app.use('/api/proposals', proposalReportRouter(ctx))
   app.use('/api/proposals', proposalsRouter(ctx))
   app.use('/api/proposals', suggestRouter(ctx))
   app.use('/api/realtime', realtimeRouter(ctx))
   app.use('/api/model/sweep', sweepRouter(ctx))
   app.use('/api/model', modelRouter())
+  app.use('/api/dashboard', dashboardRouter(ctx))
   app.use('/api/cities', citiesRouter(ctx))
 
   app.use('/api', (_req, _res, next) => next(new NotFound('API route')))

@@ -5,7 +5,7 @@ import { parseGtfsDate } from '../gtfs/date'
 import type { DayType } from '../signals/time-of-day'
 import type { RowStatus } from './proposals'
 
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use YYYY-MM-DD.')
+const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, { message: 'Use YYYY-MM-DD.', abort: true })
   .refine((s) => parseGtfsDate(s.replaceAll('-', '')) !== null, 'Not a real date.')
 
 export const dashboardQuery = z.strictObject({

@@ -10,7 +10,7 @@ import { corridorFeed } from '../support/corridor-feed'
 import { zipFeed } from '../support/gtfs-fixtures'
 import { lonAt } from '../support/realtime-fixtures'
 import { readScenarioGtfs } from '../../server/services/realtime/scenario-gtfs'
-import { RealtimeScenario } from '../../server/services/realtime/scenario'
+import { allDayPlan, RealtimeScenario } from '../../server/services/realtime/scenario'
 import { startFakeRealtimeFeed, type FakeRealtimeFeed } from '../../server/services/realtime/fake-feed'
 import { startRealtimePoller } from '../../server/services/realtime/poller'
 import { freePort } from '../support/server-process'
@@ -261,10 +261,10 @@ describe('GET /api/realtime/calibration', () => {
     expect(row.modelDelayS).toBeCloseTo(model, 0)
     expect(row.differenceS).toBeCloseTo(row.observedDelayS - row.modelDelayS, 0)
     // A 90 s cycle with 44 s of red holds a bus about half the red on average: 119 s is more than
-    // any volume up to twice the given one explains, so no volume is suggested, a cause is named.
+    // even twice the given volume explains, so no volume is suggested, a cause is named.
     expect(row.agrees).toBe(false)
     expect(row.suggestion).toBeNull()
-    expect(row.note).toMatch(/longer than any volume/)
+    expect(row.note).toMatch(/longer than even twice the volume/)
     // At the second intersection: 80 s - 400 m at 13.889 m/s (28.8 s) - 20 s dwell at S3 - 11.574 s = 19.6 s,
     // within 5 s (or 25%) of the model: it agrees.
     const second = res.body.rows.find((r: { approachId: string; dayType: string }) => r.approachId === fx.a2.id && r.dayType === 'weekday')
@@ -282,8 +282,8 @@ describe('realtime sources polled from the local fake feed', () => {
     const scenario = new RealtimeScenario(readScenarioGtfs(zipFeed(corridorFeed()), ['7']), {
       seed: 7,
       signals: [
-        { name: 'First', lat: 51.0, lon: lonAt(600), cycleS: 90, greenS: 46, offsetS: 0, priority: true },
-        { name: 'Second', lat: 51.0, lon: lonAt(1100), cycleS: 90, greenS: 46, offsetS: 30, priority: false },
+        { name: 'First', lat: 51.0, lon: lonAt(600), plans: [allDayPlan(90, 46, 0)], priority: true },
+        { name: 'Second', lat: 51.0, lon: lonAt(1100), plans: [allDayPlan(90, 46, 30)], priority: false },
       ],
       priority: { enabled: false, maxExtensionS: 10, maxEarlyGreenS: 10 },
     })

@@ -3,6 +3,9 @@
 // Observed delay of a trip at an intersection = its segment time minus the free run over the
 // segment and the dwell at a stop inside it: the same split the model makes (shared/model/bus.ts:
 // the free run includes the dwell and the time lost stopping for it, so the delay is the signal's).
+// The free run is the model's: the segment at the bus's speed on the approach (its cruise speed
+// capped by the speed limit). Buses held back by traffic between signals therefore show that as
+// delay too, which the calibration is there to reveal.
 // The model's figure is the mean baseline (no priority) bus delay for the approach's data in that
 // period and the timing plan in force. Where they disagree, the arrival volume that would make
 // the model match is looked for by bisection (bus delay grows with the volume): a suggestion for
@@ -109,11 +112,14 @@ export function baselineInput(a: ApproachData, volume: number, crossVolume: numb
 
 const modelDelay = (input: ApproachInput) => evaluateApproach(input, { phaseStepS: 1 }).bus.baseline.meanDelayS
 
-/** Arrival volume at which the model's mean bus delay equals target, or null if none in [0, 2 x current] does. */
+/**
+ * Arrival volume at which the model's mean bus delay equals target, or null if none within half
+ * to twice the current volume does (a count off by more than that is not what a calibration fixes).
+ */
 export function volumeMatching(input: ApproachInput, targetS: number): { volume: number; delayS: number } | null {
   const current = input.approach.arrivalFlowVehPerHour
   const at = (v: number) => modelDelay({ ...input, approach: { ...input.approach, arrivalFlowVehPerHour: v } })
-  let lo = 0, hi = Math.min(20_000, Math.max(100, 2 * current))
+  let lo = current / 2, hi = Math.min(20_000, Math.max(100, 2 * current))
   const dLo = at(lo), dHi = at(hi)
   if (targetS < dLo - 0.5 || targetS > dHi + 0.5) return null
   for (let i = 0; i < 20 && hi - lo > 2; i++) {
@@ -166,18 +172,20 @@ function calibrationRow(
   const bus = prepareApproach(input ?? baselineInput(a, 0, 0, FALLBACK_PLAN, stopDistanceM)).bus
   const observedDwells = samples.filter((s) => s.dwellS !== null).map((s) => s.dwellS!)
   const dwellFrom: CalibrationRowDto['dwellFrom'] = observedDwells.length ? 'observed' : stopDistanceM !== null ? 'input' : 'none'
-  const delays = samples.map((s) => {
+  // Running time of each trip: the segment time without its dwell and the time lost stopping for it.
+  const running = samples.map((s) => {
     const dwell = s.dwellS ?? (stopDistanceM !== null ? a.dwellS ?? 20 : 0)
-    const penalty = dwell > 0 ? bus.stopPenaltyS : 0
-    return s.travelS - lengthM / bus.speed - dwell - penalty
+    return { dwell, runS: s.travelS - dwell - (dwell > 0 ? bus.stopPenaltyS : 0) }
   })
-  const meanDwell = observedDwells.length ? observedDwells.reduce((x, y) => x + y, 0) / observedDwells.length : dwellFrom === 'input' ? a.dwellS ?? 20 : 0
+  const freeRun = lengthM / bus.speed
+  const delays = running.map((r) => r.runS - freeRun)
+  const meanDwell = running.reduce((x, r) => x + r.dwell, 0) / running.length
   const observed = delays.reduce((x, y) => x + y, 0) / delays.length
   const round = (v: number) => Math.round(v * 10) / 10
   const base = {
     approachId: seg.approachId, intersectionId: seg.intersectionId, intersectionName: seg.intersectionName, periodId: period.id, periodName: period.name,
     dayType, trips: samples.length, segmentLengthM: round(lengthM), observedTravelS: round(samples.reduce((x, y) => x + y.travelS, 0) / samples.length),
-    freeRunS: round(lengthM / bus.speed), dwellS: round(meanDwell), dwellFrom, observedDelayS: round(observed), observedMedianDelayS: round(median(delays)),
+    freeRunS: round(freeRun), dwellS: round(meanDwell), dwellFrom, observedDelayS: round(observed), observedMedianDelayS: round(median(delays)),
   }
   if (!input) {
     const missing = !plan ? 'no timing plan is in force for this period and day type' : 'the approach has no volumes for this period'
@@ -200,8 +208,8 @@ function calibrationRow(
       note = diff > 0 ? 'Buses were held longer than the model predicts.' : 'Buses were held less than the model predicts.'
     } else {
       note = diff > 0
-        ? 'Buses were held longer than any volume the model accepts explains: check the timing plan in force, detector faults or queues from downstream.'
-        : 'Buses were held less than the model predicts even with no traffic: arrivals are likely coordinated with the green (progression), which the model does not assume.'
+        ? 'Buses were held longer than even twice the volume explains: check the timing plan in force, detector faults or queues from downstream.'
+        : 'Buses were held less than the model predicts even with half the volume: arrivals are likely coordinated with the green (progression), which the model does not assume.'
     }
   }
   return { ...base, modelDelayS: round(predicted), differenceS: round(diff), agrees, suggestion, note }

@@ -21,10 +21,20 @@ export interface VehicleToEncode {
   stopSequence?: number
 }
 
-export function encodeVehicleFeed(headerTimeS: number, vehicles: VehicleToEncode[]): Uint8Array {
+export interface TripUpdateToEncode {
+  entityId: string
+  tripId: string
+  startDate: string
+  startTime?: string
+  vehicleId: string
+  timeS: number
+  stops: { stopSequence: number; arrivalS?: number; departureS?: number; delayS?: number }[]
+}
+
+export function encodeVehicleFeed(headerTimeS: number, vehicles: VehicleToEncode[], tripUpdates: TripUpdateToEncode[] = []): Uint8Array {
   const msg = rt.FeedMessage.create({
     header: { gtfsRealtimeVersion: '2.0', incrementality: rt.FeedHeader.Incrementality.FULL_DATASET, timestamp: headerTimeS },
-    entity: vehicles.map((v) => ({
+    entity: [...vehicles.map((v) => ({
       id: v.entityId,
       vehicle: {
         trip: { tripId: v.tripId, routeId: v.routeId, startDate: v.startDate, startTime: v.startTime },
@@ -35,7 +45,19 @@ export function encodeVehicleFeed(headerTimeS: number, vehicles: VehicleToEncode
         stopId: v.stopId,
         currentStopSequence: v.stopSequence,
       },
-    })),
+    })), ...tripUpdates.map((u) => ({
+      id: u.entityId,
+      tripUpdate: {
+        trip: { tripId: u.tripId, startDate: u.startDate, startTime: u.startTime },
+        vehicle: { id: u.vehicleId },
+        timestamp: u.timeS,
+        stopTimeUpdate: u.stops.map((s) => ({
+          stopSequence: s.stopSequence,
+          arrival: s.arrivalS !== undefined ? { time: s.arrivalS } : s.delayS !== undefined ? { delay: s.delayS } : undefined,
+          departure: s.departureS !== undefined ? { time: s.departureS } : undefined,
+        })),
+      },
+    }))],
   })
   return rt.FeedMessage.encode(msg).finish()
 }

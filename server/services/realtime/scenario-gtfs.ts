@@ -12,6 +12,7 @@ import { frequencyStartTimes } from '../../../shared/gtfs/frequencies'
 export interface ScenarioStopTime {
   stopId: string
   stopSequence: number
+  /** NaN at a stop the feed leaves without times (not a timepoint); the scenario interpolates. */
   arrivalS: number
   departureS: number
 }
@@ -45,7 +46,7 @@ function table(files: Record<string, Uint8Array>, name: string): Row[] {
   return Papa.parse<Row>(text, { header: true, skipEmptyLines: true, transformHeader: (h) => h.trim() }).data
 }
 
-export function readScenarioGtfs(zip: Uint8Array, routeIds?: readonly string[]): ScenarioGtfs {
+export function readScenarioGtfs(zip: Uint8Array, routeIds?: readonly string[], directionId?: number): ScenarioGtfs {
   const files = unzipSync(zip, { filter: (f) => f.name.endsWith('.txt') })
   const byName = Object.fromEntries(Object.entries(files).map(([k, v]) => [k.split('/').pop()!, v]))
   const timeZone = table(byName, 'agency.txt')[0]?.agency_timezone ?? 'UTC'
@@ -53,6 +54,7 @@ export function readScenarioGtfs(zip: Uint8Array, routeIds?: readonly string[]):
   const trips = new Map<string, ScenarioTrip>()
   for (const t of table(byName, 'trips.txt')) {
     if (!keepRoute(t.route_id) || !t.shape_id) continue
+    if (directionId !== undefined && Number(t.direction_id || 0) !== directionId) continue
     trips.set(t.trip_id, {
       tripId: t.trip_id, routeId: t.route_id, serviceId: t.service_id, shapeId: t.shape_id,
       directionId: Number(t.direction_id || 0), stopTimes: [], runStarts: [],
@@ -61,11 +63,9 @@ export function readScenarioGtfs(zip: Uint8Array, routeIds?: readonly string[]):
   for (const st of table(byName, 'stop_times.txt')) {
     const trip = trips.get(st.trip_id)
     if (!trip) continue
-    const arr = parseGtfsTime(st.arrival_time ?? '')
-    const dep = parseGtfsTime(st.departure_time ?? '')
-    // Demo feeds give times at every stop; a blank one is left out rather than guessed here.
-    if (arr === null && dep === null) continue
-    trip.stopTimes.push({ stopId: st.stop_id, stopSequence: Number(st.stop_sequence), arrivalS: arr ?? dep!, departureS: dep ?? arr! })
+    const arr = parseGtfsTime(st.arrival_time ?? '') ?? Number.NaN
+    const dep = parseGtfsTime(st.departure_time ?? '') ?? Number.NaN
+    trip.stopTimes.push({ stopId: st.stop_id, stopSequence: Number(st.stop_sequence), arrivalS: arr, departureS: dep })
   }
   for (const trip of trips.values()) trip.stopTimes.sort((a, b) => a.stopSequence - b.stopSequence)
   for (const f of table(byName, 'frequencies.txt')) {

@@ -3,24 +3,37 @@
 // FULL_DATASET FeedMessage of VehiclePositions. The same seed, schedule and signals always give
 // the same feed, so demo snapshots and tests are reproducible.
 import { cumulativeDistanceM, projectOntoPolyline } from '../../../shared/gtfs/geo'
-import { gtfsDate, parseGtfsDate } from '../../../shared/gtfs/date'
+import { interpolateStopTimes } from '../../../shared/gtfs/interpolate'
+import { gtfsDate, parseGtfsDate, weekdayIndex } from '../../../shared/gtfs/date'
 import { formatGtfsTime } from '../../../shared/gtfs/time'
 import { seededRandom } from './statistics'
 import { buildShapeLine, pointAt, type ShapeLine } from './shape-line'
-import { localDate, serviceDayStart } from './service-day'
-import { simulateRun, positionAt, type Knot, type PriorityRules, type RunSignal } from './bus-run'
-import { encodeVehicleFeed, type VehicleToEncode } from './encode'
+import { dayTypeOfIso, localDate, localParts, serviceDayStart } from './service-day'
+import { planInForce, type PlanWindow } from '../../../shared/signals/timing-plan'
+import { simulateRun, positionAt, type Knot, type PriorityRules, type RunSignal, type SignalTiming } from './bus-run'
+import { encodeVehicleFeed, type TripUpdateToEncode, type VehicleToEncode } from './encode'
 import type { ScenarioGtfs, ScenarioTrip } from './scenario-gtfs'
+
+/** A timing plan: its window and day types, and the values the simulated bus needs. */
+export interface ScenarioPlan extends PlanWindow {
+  cycleS: number
+  busGreenS: number
+  /** Start of the bus-street green after the day's reference (local midnight), s. */
+  offsetS: number
+}
 
 export interface ScenarioSignal {
   name: string
   lat: number
   lon: number
-  cycleS: number
-  greenS: number
-  offsetS: number
-  /** Whether priority runs here in the "after" period. */
+  plans: ScenarioPlan[]
+  /** Whether priority runs here (when the scenario's priority is on). */
   priority: boolean
+}
+
+/** One plan all day, every day (for tests and simple scenarios). */
+export function allDayPlan(cycleS: number, busGreenS: number, offsetS: number): ScenarioPlan {
+  return { name: 'All day', dayTypes: ['weekday', 'saturday', 'sunday'], startTime: '00:00', endTime: '24:00', cycleS, busGreenS, offsetS }
 }
 
 export interface ScenarioOptions {
@@ -29,6 +42,10 @@ export interface ScenarioOptions {
   priority: PriorityRules
   /** GPS scatter of the reported positions, metres (about 3-5 m for bus AVL, common practice). */
   gpsErrorM?: number
+  /** Also publish TripUpdates (the last stops served, with their times, and the next one). */
+  tripUpdates?: boolean
+  /** ...only in feeds whose time is a multiple of this many seconds (0: in every feed). */
+  tripUpdateEveryS?: number
 }
 
 /** A signal is on a trip's path when it lies this close to the trip's shape. */
@@ -79,12 +96,28 @@ export class RealtimeScenario {
         from = p.distM
         return p.distM
       })
+      // Times of the stops between timepoints, along the shape (the GTFS consumer's job).
+      const arr = trip.stopTimes.map((st) => st.arrivalS)
+      const dep = trip.stopTimes.map((st) => st.departureS)
+      interpolateStopTimes(arr, dep, stopDist)
+      trip.stopTimes.forEach((st, i) => { st.arrivalS = arr[i]; st.departureS = dep[i] })
       const signals = opts.signals.flatMap((g) => {
         const p = projectOntoPolyline(g.lat, g.lon, lat, lon, cum)
-        return p.offsetM <= SIGNAL_MAX_OFFSET_M ? [{ distM: p.distM, cycleS: g.cycleS, greenS: g.greenS, offsetS: g.offsetS, priority: g.priority }] : []
+        return p.offsetM <= SIGNAL_MAX_OFFSET_M ? [{ distM: p.distM, timingAt: (t: number) => this.timingAt(g, t), priority: g.priority }] : []
       })
       return [{ trip, line, stopDist, signals }]
     })
+  }
+
+  /** The plan in force at a signal at an instant, by local time of day and day type. */
+  private timingAt(g: ScenarioSignal, t: number): SignalTiming | null {
+    const tz = this.gtfs.timeZone
+    const p = localParts(t, tz)
+    const date = localDate(t, tz)
+    const iso = `${date.slice(0, 4)}-${date.slice(4, 6)}-${date.slice(6, 8)}`
+    const plan = planInForce(g.plans, dayTypeOfIso(iso), p.hour * 60 + p.minute)
+    if (!plan) return null
+    return { cycleS: plan.cycleS, greenS: plan.busGreenS, greenStartS: serviceDayStart(date, tz) + plan.offsetS }
   }
 
   /** Every run on a service day (YYYYMMDD), simulated once and kept. */
@@ -100,8 +133,12 @@ export class RealtimeScenario {
       const starts = p.trip.runStarts.length ? p.trip.runStarts : [first]
       for (const start of starts) {
         const shift = start - first
-        const stops = p.trip.stopTimes.map((st, i) => ({ distM: p.stopDist[i], stopId: st.stopId, stopSequence: st.stopSequence, departureS: dayStart + st.departureS + shift }))
-        const rand = seededRandom(hash(`${this.opts.seed}|${date}|${p.trip.tripId}|${start}`))
+        const stops = p.trip.stopTimes.map((st, i) => ({
+          distM: p.stopDist[i], stopId: st.stopId, stopSequence: st.stopSequence, departureS: dayStart + st.departureS + shift,
+        }))
+        // Draws depend on the trip and the weekday, not the date: the same run on a Tuesday before
+        // and a Tuesday after a change meets the same crowds and queues, so the change shows.
+        const rand = seededRandom(hash(`${this.opts.seed}|${weekdayIndex(day!)}|${p.trip.tripId}|${start}`))
         runs.push({
           trip: p, date,
           startTime: p.trip.runStarts.length ? formatGtfsTime(start) : null,
@@ -114,40 +151,86 @@ export class RealtimeScenario {
     return runs
   }
 
-  vehiclesAt(timeS: number): VehicleToEncode[] {
+  /** The runs on the street at an instant, with where each is. */
+  private activeAt(timeS: number) {
     const today = localDate(timeS, this.gtfs.timeZone)
     const yesterday = gtfsDate(parseGtfsDate(today)! - 1)
-    const out: VehicleToEncode[] = []
-    const gps = this.opts.gpsErrorM ?? 4
-    for (const date of [yesterday, today]) {
-      for (const run of this.runsOn(date)) {
-        const at = positionAt(run.knots, timeS)
-        if (!at) continue
-        const key = `${run.trip.trip.tripId}-${date}${run.startTime ? `-${run.startTime}` : ''}`
-        const noise = seededRandom(hash(`${this.opts.seed}|${key}|${timeS}`))
-        const pt = pointAt(run.trip.line, at.distM)
-        const dLat = ((noise() - 0.5) * 2 * gps) / 111_195
-        const dLon = ((noise() - 0.5) * 2 * gps) / (111_195 * Math.cos((pt.lat * Math.PI) / 180))
-        const stop = at.stop === null ? null : run.trip.trip.stopTimes[at.stop]
-        out.push({
-          entityId: key,
-          tripId: run.trip.trip.tripId,
-          routeId: run.trip.trip.routeId,
-          startDate: date,
-          ...(run.startTime ? { startTime: run.startTime } : {}),
-          vehicleId: `LRT-${(hash(key) % 900) + 100}`,
-          timeS,
-          lat: pt.lat + dLat,
-          lon: pt.lon + dLon,
-          status: stop ? 1 : 2,
-          ...(stop ? { stopId: stop.stopId, stopSequence: stop.stopSequence } : {}),
-        })
-      }
-    }
-    return out
+    return [yesterday, today].flatMap((date) => this.runsOn(date).flatMap((run) => {
+      const at = positionAt(run.knots, timeS)
+      if (!at) return []
+      const key = `${run.trip.trip.tripId}-${date}${run.startTime ? `-${run.startTime}` : ''}`
+      return [{ run, at, key, date, vehicleId: `LRT-${(hash(key) % 900) + 100}` }]
+    }))
   }
 
+  vehiclesAt(timeS: number): VehicleToEncode[] {
+    const gps = this.opts.gpsErrorM ?? 4
+    return this.activeAt(timeS).map(({ run, at, key, date, vehicleId }) => {
+      const noise = seededRandom(hash(`${this.opts.seed}|${key}|${timeS}`))
+      const pt = pointAt(run.trip.line, at.distM)
+      const dLat = ((noise() - 0.5) * 2 * gps) / 111_195
+      const dLon = ((noise() - 0.5) * 2 * gps) / (111_195 * Math.cos((pt.lat * Math.PI) / 180))
+      const stop = at.stop === null ? null : run.trip.trip.stopTimes[at.stop]
+      return {
+        entityId: key,
+        tripId: run.trip.trip.tripId,
+        routeId: run.trip.trip.routeId,
+        startDate: date,
+        ...(run.startTime ? { startTime: run.startTime } : {}),
+        vehicleId,
+        timeS,
+        lat: pt.lat + dLat,
+        lon: pt.lon + dLon,
+        status: stop ? 1 : 2,
+        ...(stop ? { stopId: stop.stopId, stopSequence: stop.stopSequence } : {}),
+      }
+    })
+  }
+
+  /**
+   * What an AVL system reports: the arrival and departure times of the last two stops served
+   * (the current one's arrival only, while the bus stands there) and the next stop's delay.
+   */
+  tripUpdatesAt(timeS: number): TripUpdateToEncode[] {
+    const dayStarts = new Map<string, number>()
+    return this.activeAt(timeS).map(({ run, key, date, vehicleId }) => {
+      const served = new Map<number, { arrivalS: number; departureS: number | null }>()
+      for (const k of run.knots) {
+        if (k.stop === null || k.t > timeS) continue
+        const e = served.get(k.stop)
+        if (!e) served.set(k.stop, { arrivalS: k.t, departureS: null })
+        else e.departureS = k.t
+      }
+      // The dwell's end is the departure; while the bus still stands at a stop only its arrival is known.
+      const passed = [...served.entries()].sort((a, b) => a[0] - b[0]).slice(-2)
+      const stops: TripUpdateToEncode['stops'] = passed.map(([i, e]) => ({
+        stopSequence: run.trip.trip.stopTimes[i].stopSequence,
+        arrivalS: Math.round(e.arrivalS),
+        ...(e.departureS !== null ? { departureS: Math.round(e.departureS) } : {}),
+      }))
+      const lastIndex = passed.length ? passed[passed.length - 1][0] : 0
+      const next = run.trip.trip.stopTimes[lastIndex + 1]
+      if (next && passed.length) {
+        let start = dayStarts.get(date)
+        if (start === undefined) { start = serviceDayStart(date, this.gtfs.timeZone); dayStarts.set(date, start) }
+        const last = passed[passed.length - 1][1]
+        const scheduled = run.trip.trip.stopTimes[lastIndex]
+        stops.push({ stopSequence: next.stopSequence, delayS: Math.round(last.arrivalS - (start + scheduled.arrivalS + this.shiftOf(run))) })
+      }
+      return { entityId: `tu-${key}`, tripId: run.trip.trip.tripId, startDate: date, ...(run.startTime ? { startTime: run.startTime } : {}), vehicleId, timeS, stops }
+    })
+  }
+
+  private shiftOf(run: Run): number {
+    if (!run.startTime) return 0
+    const [h, m, s] = run.startTime.split(':').map(Number)
+    return h * 3600 + m * 60 + s - run.trip.trip.stopTimes[0].departureS
+  }
+
+  /** The feed at an instant; trip updates at most every `tripUpdateEveryS` (an AVL system refreshes them less often). */
   feedAt(timeS: number): Uint8Array {
-    return encodeVehicleFeed(timeS, this.vehiclesAt(timeS))
+    const every = this.opts.tripUpdateEveryS ?? 0
+    const withUpdates = this.opts.tripUpdates && (every <= 0 || timeS % every === 0)
+    return encodeVehicleFeed(timeS, this.vehiclesAt(timeS), withUpdates ? this.tripUpdatesAt(timeS) : [])
   }
 }

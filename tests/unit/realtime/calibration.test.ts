@@ -27,7 +27,8 @@ describe('calibration helpers', () => {
     const match = volumeMatching(input, target)!
     expect(Math.abs(match.volume - 700)).toBeLessThanOrEqual(20)
     expect(match.delayS).toBeCloseTo(target, 0)
-    // More delay than the signal can cause at twice the volume: no volume explains it.
+    // More delay than the signal causes at twice the volume, or less than at half: no suggestion.
     expect(volumeMatching(input, 500)).toBeNull()
+    expect(volumeMatching(input, delayAt(200) - 2)).toBeNull()
   })
 })

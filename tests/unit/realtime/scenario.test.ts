@@ -2,38 +2,48 @@ import { describe, expect, it } from 'vitest'
 import GtfsRealtimeBindings from 'gtfs-realtime-bindings'
 import { positionAt, simulateRun } from '../../../server/services/realtime/bus-run'
 import { readScenarioGtfs } from '../../../server/services/realtime/scenario-gtfs'
-import { RealtimeScenario, type ScenarioOptions } from '../../../server/services/realtime/scenario'
+import { allDayPlan, RealtimeScenario, type ScenarioOptions } from '../../../server/services/realtime/scenario'
 import { decodeSnapshot } from '../../../server/services/realtime/decode'
 import { corridorFeed, LAT, metresAlong, SHAPE_7E_START_LON } from '../../support/corridor-feed'
 import { zipFeed } from '../../support/gtfs-fixtures'
 
 const half = () => 0.5
 const stops = [{ distM: 0, stopId: 'A', stopSequence: 1, departureS: 0 }, { distM: 1000, stopId: 'B', stopSequence: 2, departureS: 200 }]
-const signal = { distM: 500, cycleS: 90, greenS: 40, offsetS: 0, priority: true }
+const timing = (greenS: number) => () => ({ cycleS: 90, greenS, greenStartS: 60 })
+const signal = { distM: 500, timingAt: timing(30), priority: true }
 const off = { enabled: false, maxExtensionS: 10, maxEarlyGreenS: 10 }
 
 describe('simulateRun (hand computed with every random draw 0.5)', () => {
-  // Speed 8.5 + 3.5 x 0.5 = 10.25 m/s; leaves A at 0 - 40 + 70 x 0.5 = -5 s; two cars queue (floor(2.5)).
-  // Half the stopping loss v / (2 a) = 10.25 / 2.4 = 4.271 s.
+  // Speed 8.5 + 2 x 0.5 = 9.5 m/s; leaves A at 0 - 20 + 140 x 0.5 = 50 s; two cars queue (floor(2.5)).
+  // Half the stopping loss v / (2 a) = 9.5 / 2.4 = 3.958 s. Greens start at 60 s, every 90 s.
+  // It would reach the line at 50 + 500 / 9.5 = 102.63 s, 42.63 s into the cycle.
   it('waits for green behind the queue', () => {
     const knots = simulateRun(stops, [signal], half, off)
-    // Would reach the line at -5 + 500 / 10.25 = 43.78 s: 43.78 s into a 90 s cycle with 40 s of
-    // green is red until 90 s. Stops at the queue tail 485 m at -5 + 485 / 10.25 = 42.32 s and
-    // moves at 90 + 2 s start-up + 2 cars x 1.5 s = 95 s.
-    expect(positionAt(knots, 60)).toEqual({ distM: 485, stop: null })
-    expect(positionAt(knots, 94.9)!.distM).toBeCloseTo(485, 6)
-    // Crosses the line at 95 + 4.271 + 15 / 10.25 = 100.73 s.
-    const line = knots.find((k) => k.d === 500)!
-    expect(line.t).toBeCloseTo(95 + 10.25 / 2.4 + 15 / 10.25, 6)
+    // 42.63 s into a cycle with 30 s of green: red until 150 s. Stops at the queue tail 485 m at
+    // 50 + 485 / 9.5 = 101.05 s and moves at 150 + 2 s start-up + 2 cars x 1.5 s = 155 s.
+    expect(positionAt(knots, 120)).toEqual({ distM: 485, stop: null })
+    expect(positionAt(knots, 154.9)!.distM).toBeCloseTo(485, 6)
+    // Crosses the line at 155 + 3.958 + 15 / 9.5 = 160.54 s.
+    expect(knots.find((k) => k.d === 500)!.t).toBeCloseTo(155 + 9.5 / 2.4 + 15 / 9.5, 6)
   })
 
-  it('holds the green for a bus 3.8 s late for it, and dwells at the last stop', () => {
-    const knots = simulateRun(stops, [signal], half, { ...off, enabled: true })
-    expect(knots.find((k) => k.d === 500)!.t).toBeCloseTo(-5 + 500 / 10.25, 6)
-    // Reaches B at 43.78 + 48.78 + 4.271 = 96.83 s and stands there (STOPPED_AT B, index 1).
-    expect(positionAt(knots, 100)).toEqual({ distM: 1000, stop: 1 })
-    expect(positionAt(knots, -10)).toEqual({ distM: 0, stop: 0 })
-    expect(positionAt(knots, -60)).toBeNull()
+  it('ends the red early for a bus that finds it, and dwells at the last stop', () => {
+    // 20 s of green: 22.63 s after its end, beyond the 10 s an extension covers; the red (to
+    // 150 s) is cut by 10 s of early green: green at 140 s, moving at 145 s, line at 150.54 s.
+    const knots = simulateRun(stops, [{ ...signal, timingAt: timing(20) }], half, { ...off, enabled: true })
+    expect(knots.find((k) => k.d === 500)!.t).toBeCloseTo(145 + 9.5 / 2.4 + 15 / 9.5, 6)
+    // Reaches B at 150.54 + 500 / 9.5 + 3.958 = 207.13 s and stands there 20 s (STOPPED_AT B, index 1).
+    expect(positionAt(knots, 215)).toEqual({ distM: 1000, stop: 1 })
+    expect(positionAt(knots, 230)).toBeNull()
+    // At A from 25 s (STOPPED_AT, 25 s before it leaves); nothing before.
+    expect(positionAt(knots, 40)).toEqual({ distM: 0, stop: 0 })
+    expect(positionAt(knots, 20)).toBeNull()
+  })
+
+  it('holds the green for a bus a few seconds late for it', () => {
+    // 35 s of green: the bus at 42.63 s is 7.63 s after its end, within the 10 s extension.
+    const knots = simulateRun(stops, [{ ...signal, timingAt: timing(35) }], half, { ...off, enabled: true })
+    expect(knots.find((k) => k.d === 500)!.t).toBeCloseTo(50 + 500 / 9.5, 6)
   })
 })
 
@@ -42,7 +52,7 @@ describe('RealtimeScenario on the corridor test feed', () => {
   const gtfs = readScenarioGtfs(zipFeed(corridorFeed()), ['7'])
   const options = (enabled: boolean, seed = 1): ScenarioOptions => ({
     seed,
-    signals: [600, 1100].map((d, i) => ({ name: `S${i}`, lat: LAT, lon: lonAt(d), cycleS: 90, greenS: 40, offsetS: 25 * i, priority: true })),
+    signals: [600, 1100].map((d, i) => ({ name: `S${i}`, lat: LAT, lon: lonAt(d), plans: [allDayPlan(90, 40, 25 * i)], priority: true })),
     priority: { enabled, maxExtensionS: 10, maxEarlyGreenS: 10 },
   })
   const noon = Date.UTC(2026, 0, 13, 12, 3) / 1000

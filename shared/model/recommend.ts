@@ -328,13 +328,16 @@ export function recommendPeriods(periods: readonly PeriodCase[], ranges: SweepRa
 /**
  * The best trade-offs of a sweep: the points within every limit that no other such point beats on
  * both the bus saving (higher) and the cross-street delay (lower), one per distinct pair of
- * figures (the simplest settings giving it), by rising bus saving.
+ * figures (the simplest settings giving it), by rising bus saving. Settings that never grant are
+ * left out but for "no priority" itself.
+ * @param minGainS a point must save the bus this much more than the one before (0.05 s: the
+ *   difference a table shows)
  */
-export function tradeOffFront(points: readonly SweepPoint[]): SweepPoint[] {
-  const tol = 1e-9
+export function tradeOffFront(points: readonly SweepPoint[], minGainS = 0): SweepPoint[] {
+  const tol = Math.max(1e-9, minGainS)
   const order = points
     .map((p, i) => ({ p, i }))
-    .filter(({ p }) => p.violations.length === 0)
+    .filter(({ p }) => p.violations.length === 0 && (p.grantsPerHour > 0 || p.settings.strategy === 'none'))
     .sort((a, b) => a.p.crossExtraDelayPerVehS - b.p.crossExtraDelayPerVehS || b.p.busSavingPerTripS - a.p.busSavingPerTripS
       || usedGreenS(a.p.settings) - usedGreenS(b.p.settings) || b.p.settings.lockoutCycles - a.p.settings.lockoutCycles || a.i - b.i)
   const out: SweepPoint[] = []

@@ -235,11 +235,23 @@ export function sweepEvaluator(input: ApproachInput, limits: CityLimits = NO_CIT
     if (strategy !== 'none' && L < limits.minLockoutCycles) {
       violations.push({ constraint: 'min-lockout', detail: `a lockout of ${L} cycle${L === 1 ? '' : 's'} is less than the city’s minimum recovery of ${limits.minLockoutCycles}` })
     }
-    if (limits.maxCrossVc !== null && vcAfter > limits.maxCrossVc + EPS) {
-      violations.push({ constraint: 'max-vc', detail: `the cross street’s v/c becomes ${vcAfter.toFixed(2)}, above the city’s limit of ${limits.maxCrossVc.toFixed(2)}` })
+    // The city's v/c and LOS limits bound what priority does to the cross street: above the limit,
+    // or past it where the street is there already (then no worse than it is without priority).
+    if (limits.maxCrossVc !== null && vcAfter > Math.max(limits.maxCrossVc, baseline.vcBefore) + EPS) {
+      violations.push({
+        constraint: 'max-vc',
+        detail: baseline.vcBefore > limits.maxCrossVc
+          ? `the cross street’s v/c rises from ${baseline.vcBefore.toFixed(2)} to ${vcAfter.toFixed(2)}, already above the city’s limit of ${limits.maxCrossVc.toFixed(2)}`
+          : `the cross street’s v/c becomes ${vcAfter.toFixed(2)}, above the city’s limit of ${limits.maxCrossVc.toFixed(2)}`,
+      })
     }
-    if (limits.worstLos !== null && LOS_RANK[losAfter] > LOS_RANK[limits.worstLos]) {
-      violations.push({ constraint: 'worst-los', detail: `the cross street falls to level of service ${losAfter}, worse than the city’s ${limits.worstLos}` })
+    if (limits.worstLos !== null && LOS_RANK[losAfter] > Math.max(LOS_RANK[limits.worstLos], LOS_RANK[baseline.losBefore])) {
+      violations.push({
+        constraint: 'worst-los',
+        detail: LOS_RANK[baseline.losBefore] > LOS_RANK[limits.worstLos]
+          ? `the cross street falls from level of service ${baseline.losBefore} to ${losAfter}, already worse than the city’s ${limits.worstLos}`
+          : `the cross street falls to level of service ${losAfter}, worse than the city’s ${limits.worstLos}`,
+      })
     }
 
     return { settings, busSavingPerTripS, crossExtraDelayPerVehS, personDelayBalanceS, vcAfter, losAfter, grantsPerHour, violations }

@@ -5,6 +5,8 @@ import { z } from 'zod'
 import { LOS_GRADES, type LosGrade } from './model'
 import { MAX_LIMIT_S, MAX_LOCKOUT_CYCLES } from './proposals'
 
+// The v/c and LOS limits bound what priority does: a cross street already past a limit without
+// priority may not get any worse with it (the timing itself is the city's to change).
 export const cityLimitsSchema = z.strictObject({
   /** Highest cross-street volume-to-capacity ratio after priority; null: no limit. */
   maxCrossVc: z.number().min(0.3).max(1.5).nullable(),

@@ -5,14 +5,14 @@
 import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { User } from 'lucia'
 import type { Db } from '../db'
-import { corridorApproaches, corridors, proposalEvaluations, proposalRowEvents, proposals, timingPlans, users } from '../db/schema'
+import { corridorApproaches, corridors, proposalEvaluations, proposalRowEvents, proposals, users } from '../db/schema'
 import type { Mailer } from '../services/mail'
 import { createProposal, submitProposal } from '../services/proposals/proposals'
 import { decideRow, patchRow } from '../services/proposals/rows'
 import { evaluateProposalNow, newEvaluation } from '../services/proposals/evaluation'
 import { proposalRecord } from '../services/proposals/records'
-import { spareCrossGreenS } from '../../shared/proposals/priority-checks'
-import type { DecisionBody, ProposalRowDto, RowSettings } from '../../shared/schemas/proposals'
+import type { DecisionBody, RowSettings } from '../../shared/schemas/proposals'
+import { usesExtension } from '../../shared/proposals/settings'
 
 export const DEMO_CORRIDOR_NAME = 'Kestrel Avenue eastbound'
 export const DEMO_PROPOSAL_NAME = 'Kestrel Avenue priority, first round'
@@ -25,15 +25,6 @@ async function actor(db: Db, id: string): Promise<User> {
   return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisationId, active: u.active }
 }
 
-/** A first proposal a planner would draft: 10 s each way where the cross street can spare it. */
-function firstSettings(row: ProposalRowDto, spareS: number, nearSide: boolean): RowSettings {
-  const limit = Math.max(0, Math.min(10, Math.floor(spareS)))
-  if (limit < 3) return { ...row.settings, strategy: 'none' }
-  // A near-side stop makes the bus's arrival at the line uncertain (its dwell comes first), so
-  // an extension is often wasted there; start the green early instead.
-  return { ...row.settings, strategy: nearSide ? 'early-green' : 'both', maxExtensionS: limit, maxEarlyGreenS: limit, lockoutCycles: 1 }
-}
-
 interface Step { decision: DecisionBody['decision']; comment: string; counter?: (s: RowSettings) => DecisionBody['counter'] }
 
 // Per city, the decisions taken so far, in corridor order; the city's remaining rows wait.
@@ -42,8 +33,11 @@ const STEPS: Record<string, Step[]> = {
     { decision: 'accept', comment: 'Fits our AM and PM plans. We will program it with the spring timing update.' },
     {
       decision: 'request-change',
-      comment: 'In the PM peak the side street already queues back past the school entrance. We can give a shorter extension with two cycles of lockout.',
-      counter: (s) => ({ maxExtensionS: Math.max(3, Math.min(6, s.maxExtensionS - 4)), lockoutCycles: 2 }),
+      comment: 'In the PM peak the side street already queues back past the school entrance. We can give half of it, with two cycles of lockout.',
+      // Half the proposed limit, on whichever kind of priority the row uses.
+      counter: (s) => (usesExtension(s)
+        ? { maxExtensionS: Math.max(2, Math.round(s.maxExtensionS / 2)), lockoutCycles: 2 }
+        : { maxEarlyGreenS: Math.max(2, Math.round(s.maxEarlyGreenS / 2)), lockoutCycles: 2 }),
     },
   ],
   'org-osterfield': [
@@ -73,15 +67,13 @@ export async function seedDemoProposal(db: Db): Promise<void> {
     return
   }
 
-  // The planner tunes each row to what its timing plans can spare.
+  // Rows start at 10 s each way, lowered to what each signal's plans can spare. A near-side stop
+  // makes the bus's arrival at the line uncertain (its dwell comes first), so an extension is
+  // often wasted there: the planner starts the green early instead.
   for (const row of p.rows) {
-    const plans = await db.select().from(timingPlans).where(eq(timingPlans.intersectionId, row.intersectionId))
-    const spare = plans.length ? Math.min(...plans.map((x) => spareCrossGreenS(x))) : 0
     const [approach] = await db.select({ stopRelation: corridorApproaches.stopRelation }).from(corridorApproaches).where(eq(corridorApproaches.id, row.approachId))
-    const next = firstSettings(row, spare, approach?.stopRelation === 'near-side')
-    const { strategy, maxExtensionS, maxEarlyGreenS, lockoutCycles } = next
-    if (strategy !== row.settings.strategy || maxExtensionS !== row.settings.maxExtensionS || maxEarlyGreenS !== row.settings.maxEarlyGreenS) {
-      await patchRow(db, planner, p.id, row.id, { strategy, maxExtensionS, maxEarlyGreenS, lockoutCycles, version: row.version })
+    if (approach?.stopRelation === 'near-side' && row.settings.strategy === 'both') {
+      await patchRow(db, planner, p.id, row.id, { strategy: 'early-green', version: row.version })
     }
   }
   const record = await proposalRecord(db, p.id)

@@ -79,3 +79,22 @@ export function checkPriority(st: RowSettings, plans: readonly PlanForCheck[]): 
   }
   return out
 }
+
+/**
+ * The settings with their limits lowered, where needed, to what every plan can spare (whole
+ * seconds); no priority where a plan has nothing to spare. Never raises a limit.
+ */
+export function fitToPlans(st: RowSettings, plans: readonly PlanForCheck[]): RowSettings {
+  if (st.strategy === 'none' || !plans.length) return st
+  const spare = Math.floor(Math.min(...plans.map(spareCrossGreenS)) + 1e-9)
+  if (spare < 1) return { ...st, strategy: 'none' }
+  const both = usesExtension(st) && usesEarlyGreen(st) && st.lockoutCycles === 0
+  let e = Math.min(st.maxExtensionS, spare)
+  let a = Math.min(st.maxEarlyGreenS, spare)
+  if (both && e + a > spare) {
+    // Without lockout both come out of one cross-street green: share what it can give.
+    e = Math.min(e, Math.ceil(spare / 2))
+    a = Math.min(a, spare - e)
+  }
+  return { ...st, maxExtensionS: usesExtension(st) ? e : st.maxExtensionS, maxEarlyGreenS: usesEarlyGreen(st) ? a : st.maxEarlyGreenS }
+}

@@ -123,6 +123,8 @@ export const proposalCreateBody = z.strictObject({
   notes: z.string().trim().max(2000).default(''),
   /** Settings every row starts with; edited row by row afterwards. */
   defaults: rowSettingsSchema.optional(),
+  /** Lower each row's limits to what its intersection's timing plans can spare. */
+  fitToPlans: z.boolean().default(true),
 })
 export type ProposalCreateBody = z.input<typeof proposalCreateBody>
 

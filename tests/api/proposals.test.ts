@@ -79,6 +79,24 @@ describe('POST /api/proposals', () => {
     expect(p.rows[0].settings).toMatchObject({ strategy: 'green-extension', maxExtensionS: 8, lockoutCycles: 2, conditional: { onlyLateBuses: true } })
   })
 
+  it('lowers each row’s limits to what its timing plans can spare, and says so in the history', async () => {
+    const big = { strategy: 'green-extension', maxExtensionS: 20, maxEarlyGreenS: 0, lockoutCycles: 1, conditional: { onlyLateBuses: false, lateThresholdS: 60, lateShare: 0.3 } }
+    const p = await draft('Too long', { defaults: big })
+    expect(p.rows.map((r) => r.settings.maxExtensionS)).toEqual([SPARE_CROSS_GREEN_S, SPARE_CROSS_GREEN_S, SPARE_CROSS_GREEN_S, SPARE_CROSS_GREEN_S])
+    expect(p.rows[0].history[0]).toMatchObject({ kind: 'created', changes: [{ field: 'maxExtensionS', from: 20, to: SPARE_CROSS_GREEN_S }] })
+    expect(p.rows.every((r) => r.checks.every((c) => c.severity !== 'error'))).toBe(true)
+    // Asked not to: the rows keep 20 s, break the limit, and cannot be submitted.
+    const raw = await draft('Too long, as asked', { defaults: big, fitToPlans: false })
+    expect(raw.rows[0].settings.maxExtensionS).toBe(20)
+    expect(raw.rows[0].checks.filter((c) => c.severity === 'error').map((c) => c.path)).toEqual([['maxExtensionS']])
+    await evaluate(raw.id)
+    const res = await (await t.as('planner')).post(`/api/proposals/${raw.id}/submit`).send({}).expect(422)
+    expect(paths(res)).toEqual(['rows.0.maxExtensionS', 'rows.1.maxExtensionS', 'rows.2.maxExtensionS', 'rows.3.maxExtensionS'])
+    // The model refuses the same settings, and each period says why.
+    const stored = (await get(await t.as('planner'), raw.id)).rows[0].results!.periods
+    expect(stored.every((x) => x.error?.startsWith('priority.maxExtensionS:'))).toBe(true)
+  })
+
   it('rejects invalid input with its paths', async () => {
     const agent = await t.as('planner')
     const res = await agent.post('/api/proposals').send({ corridorId: c.corridorId, name: 'x', extra: 1, defaults: { strategy: 'all', maxExtensionS: 99, maxEarlyGreenS: 5, lockoutCycles: 1, conditional: { onlyLateBuses: false, lateThresholdS: 60, lateShare: 2 } } }).expect(422)

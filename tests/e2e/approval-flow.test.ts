@@ -42,6 +42,12 @@ describe('negotiating a priority proposal across two cities', () => {
     await signInAs(page, server.url, 'planner@fanlight.test')
     const proposals = new ProposalPages(page, server.url)
     proposalId = await proposals.create(PROPOSAL, CORRIDOR)
+    rows = (await current()).rows
+    // The planner tunes one row before evaluating: two cycles of lockout at the first signal.
+    await proposals.editLockout(rows[0].intersectionName, 2)
+    const tuned = new ApprovalTablePage(page, server.url)
+    expect(await tuned.row(rows[0].intersectionName).innerText()).toContain('lockout 2 cycles')
+    await screenshot(page, 'proposal-draft')
     await proposals.evaluate()
     await page.getByTestId('results-table').waitFor()
     await page.getByRole('note', { name: 'Safety caution' }).waitFor()

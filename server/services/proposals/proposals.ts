@@ -5,7 +5,7 @@ import type { User } from 'lucia'
 import type { Db } from '../../db'
 import {
   corridorApproaches, corridorPeriods, corridors, intersections, organisations, proposalEvaluations, proposalRowEvents, proposalRows,
-  proposals, users,
+  proposals, timingPlans, users,
 } from '../../db/schema'
 import { Conflict, NotFound, Unprocessable } from '../../errors'
 import type { Mailer } from '../mail'
@@ -15,6 +15,8 @@ import {
 } from '../../../shared/schemas/proposals'
 import { corridorTotals } from '../../../shared/proposals/summary'
 import { transition } from '../../../shared/proposals/row-state'
+import { fitToPlans } from '../../../shared/proposals/priority-checks'
+import { settingsChanges } from '../../../shared/proposals/settings'
 import { rowDtos } from './dto'
 import { assertMayPlan, mayView, proposalRecord, settingsColumns, type DbOrTx, type ProposalRecord } from './records'
 import { notifySubmitted } from './notify'
@@ -91,7 +93,7 @@ async function proposalDto(db: DbOrTx, p: ProposalRecord, rows: ProposalDto['row
 }
 
 /** A draft with one row per approach of the corridor, in order along it, all with the same settings. */
-export async function createProposal(db: Db, actor: User, body: ProposalCreateBody & { notes: string }): Promise<ProposalDto> {
+export async function createProposal(db: Db, actor: User, body: ProposalCreateBody & { notes: string; fitToPlans?: boolean }): Promise<ProposalDto> {
   const [corridor] = await db.select().from(corridors).where(eq(corridors.id, body.corridorId))
   if (!corridor) throw new Unprocessable('No such corridor.', [{ path: ['corridorId'], message: `No corridor with id "${body.corridorId}".` }])
   assertMayPlan(actor, corridor)
@@ -99,17 +101,23 @@ export async function createProposal(db: Db, actor: User, body: ProposalCreateBo
   if (!approaches.length) {
     throw new Unprocessable('The corridor has no signalised approaches yet.', [{ path: ['corridorId'], message: 'Place the corridor’s signals (approaches) first.' }])
   }
-  const settings = body.defaults ?? DEFAULT_ROW_SETTINGS
+  const defaults = body.defaults ?? DEFAULT_ROW_SETTINGS
+  const plans = await db.select().from(timingPlans).where(inArray(timingPlans.intersectionId, approaches.map((a) => a.intersectionId)))
   const id = randomUUID()
   await db.transaction(async (tx) => {
     await tx.insert(proposals).values({ id, corridorId: corridor.id, name: body.name, notes: body.notes, createdBy: actor.id })
-    const rows = approaches.map((a, i) => ({
-      id: randomUUID(), proposalId: id, approachId: a.id, intersectionId: a.intersectionId, position: i + 1,
-      ...settingsColumns(settings), updatedBy: actor.id,
-    }))
-    await tx.insert(proposalRows).values(rows)
+    const rows = approaches.map((a, i) => {
+      const settings = body.fitToPlans === false ? defaults : fitToPlans(defaults, plans.filter((p) => p.intersectionId === a.intersectionId))
+      return {
+        id: randomUUID(), proposalId: id, approachId: a.id, intersectionId: a.intersectionId, position: i + 1,
+        ...settingsColumns(settings), updatedBy: actor.id, changes: settingsChanges(defaults, settings),
+      }
+    })
+    await tx.insert(proposalRows).values(rows.map(({ changes: _changes, ...r }) => r))
+    // What was fitted is in the history, against the defaults asked for.
     await tx.insert(proposalRowEvents).values(rows.map((r) => ({
       rowId: r.id, proposalId: id, rowVersion: 1, kind: 'created' as const, statusFrom: null, statusTo: 'draft' as const, actorId: actor.id,
+      changes: r.changes, comment: r.changes.length ? 'Limits lowered to what the timing plans can spare.' : '',
     })))
   })
   return getProposal(db, actor, id)

@@ -16,6 +16,17 @@ export class ProposalPages {
     return this.page.url().split('/').pop()!
   }
 
+  /** Changes the lockout of one row in the editor dialog. */
+  async editLockout(intersection: string, cycles: number) {
+    await this.page.getByRole('button', { name: `Edit ${intersection}`, exact: true }).click()
+    const dialog = this.page.getByRole('dialog', { name: `Edit: ${intersection}` })
+    const input = dialog.getByLabel('Lockout (cycles)')
+    await input.fill(String(cycles))
+    await input.press('Tab')
+    await dialog.getByRole('button', { name: 'Save row' }).click()
+    await dialog.waitFor({ state: 'hidden' })
+  }
+
   async evaluate() {
     await this.page.getByRole('button', { name: 'Evaluate' }).click()
     await this.page.getByTestId('corridor-totals').waitFor({ timeout: 60_000 })

@@ -54,3 +54,20 @@ describe('priority limits against the timing plan', () => {
     expect(checkPriority(st({}), []).map((c) => c.severity)).toEqual(['warning'])
   })
 })
+
+describe('fitting limits to what the plans can spare', () => {
+  it('lowers limits to the tightest plan, in whole seconds, and never raises one', async () => {
+    const { fitToPlans } = await import('../../../shared/proposals/priority-checks')
+    const tight = { ...plan, name: 'PM peak', busGreenS: 50.5 } // cross green 29.5, spare 8.5
+    const fitted = fitToPlans(st({ strategy: 'both', maxExtensionS: 10, maxEarlyGreenS: 6 }), [plan, tight])
+    expect(fitted).toMatchObject({ maxExtensionS: 8, maxEarlyGreenS: 6 })
+    expect(errors(fitted, [plan, tight])).toEqual([])
+    // Without lockout the two share one cross-street green: 8 + 8 > 8.5.
+    const shared = fitToPlans(st({ strategy: 'both', maxExtensionS: 10, maxEarlyGreenS: 10, lockoutCycles: 0 }), [tight])
+    expect(shared.maxExtensionS + shared.maxEarlyGreenS).toBeLessThanOrEqual(8)
+    expect(errors(shared, [tight])).toEqual([])
+    expect(fitToPlans(st({ strategy: 'both', maxExtensionS: 1 }), [{ ...plan, busGreenS: 59 }]).strategy).toBe('none')
+    const untouched = st({ strategy: 'green-extension', maxExtensionS: 5, maxEarlyGreenS: 40 })
+    expect(fitToPlans(untouched, [plan])).toEqual(untouched)
+  })
+})

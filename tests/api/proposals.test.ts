@@ -436,3 +436,13 @@ describe('GET /api/proposals/:id/rows/:rowId/results', () => {
     await (await t.as('planner')).get(`/api/proposals/${p.id}/rows/nope/results`).expect(404)
   })
 })
+
+describe('a corridor with proposals', () => {
+  it('cannot be deleted (409), so its negotiation is never lost', async () => {
+    await draft('Keeps the corridor')
+    const planner = await t.as('planner')
+    const corridor = (await planner.get(`/api/corridors/${c.corridorId}`).expect(200)).body
+    const res = await planner.delete(`/api/corridors/${c.corridorId}?version=${corridor.version}`).expect(409)
+    expect(res.body.message).toContain('priority proposal')
+  })
+})

@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto'
 import type { User } from 'lucia'
 import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm'
 import type { DbOrTx } from '../signals/rows'
-import { corridorApproaches, corridorPeriods, corridors, corridorStops, feedVersions } from '../../db/schema'
+import { corridorApproaches, corridorPeriods, corridors, corridorStops, feedVersions, proposals } from '../../db/schema'
 import { Conflict, NotFound, Unprocessable } from '../../errors'
 import { feedRow, routesOf, shapePoints, stopsServedBy, tripsOf } from './gtfs-queries'
 import { approachDtos, assertMayEditCorridor, corridorRow, periodsOf, stopsOf, type CorridorRow } from './rows'
@@ -154,5 +154,8 @@ export async function deleteCorridor(db: DbOrTx, actor: User, id: string, versio
   const row = await corridorRow(db, id)
   assertMayEditCorridor(actor, row)
   if (version !== undefined && version !== row.version) throw await staleCorridor(db, id)
+  // Proposals and their decisions hang off the corridor (no cascade): refuse rather than fail.
+  const [used] = await db.select({ n: count() }).from(proposals).where(eq(proposals.corridorId, id))
+  if (used.n > 0) throw new Conflict(`This corridor has ${used.n} priority proposal${used.n === 1 ? '' : 's'}; it cannot be deleted.`)
   await db.delete(corridors).where(eq(corridors.id, id))
 }

@@ -112,6 +112,24 @@ describe('PATCH and DELETE /api/intersections/:id', () => {
     await agent.delete(`/api/intersections/${s.id}?version=1`).expect(204)
     await agent.get(`/api/intersections/${s.id}`).expect(404)
   })
+
+  it('refuses to delete a signal that a corridor or a proposal still refers to (409, not a 500)', async () => {
+    const engineer = await t.as('engineer')
+    const planner = await t.as('planner')
+    const list = await engineer.get('/api/intersections').expect(200)
+    const items = (Array.isArray(list.body) ? list.body : list.body.items) as { id: string; name: string; version: number }[]
+    const tanner = items.find((i) => i.name.includes('Tanner Street'))!
+    const inUse = await engineer.delete(`/api/intersections/${tanner.id}?version=${tanner.version}`).expect(409)
+    expect(inUse.body.message).toContain('Kestrel Avenue eastbound')
+    // Remove the corridor's approach: the demo proposal's row still records the intersection.
+    const corridors = await planner.get('/api/corridors').expect(200)
+    const corridor = await planner.get(`/api/corridors/${corridors.body[0].id}`).expect(200)
+    const approach = corridor.body.approaches.find((a: { intersectionId: string }) => a.intersectionId === tanner.id)
+    await planner.delete(`/api/corridors/${corridor.body.id}/approaches/${approach.id}?version=${approach.version}`).expect(204)
+    const still = await engineer.delete(`/api/intersections/${tanner.id}?version=${tanner.version}`).expect(409)
+    expect(still.body.message).toContain('proposal')
+    await engineer.get(`/api/intersections/${tanner.id}`).expect(200)
+  })
 })
 
 describe('timing plans', () => {

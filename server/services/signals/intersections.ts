@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto'
 import type { User } from 'lucia'
 import { and, asc, eq, ilike, sql, type SQL } from 'drizzle-orm'
-import { corridorApproaches, corridors, intersections, timingPlans } from '../../db/schema'
+import { corridorApproaches, corridors, intersections, proposalRows, proposals, timingPlans } from '../../db/schema'
 import { Conflict, Unprocessable } from '../../errors'
 import type { IntersectionBody, IntersectionDto, IntersectionPatchBody, TimingPlanBody } from '../../../shared/schemas/signals'
 import { intersectionBody } from '../../../shared/schemas/signals'
@@ -93,13 +93,18 @@ export async function deleteIntersection(db: DbOrTx, actor: User, id: string, ve
   assertMayEditSignal(actor, row.jurisdictionId)
   if (version !== undefined && version !== row.version) throw await staleConflict(db, id)
   const users = await intersectionUsage(db, id)
-  if (users.length) throw new Conflict(`Corridors use this intersection: ${users.join(', ')}. Remove their approaches first.`)
+  if (users.length) throw new Conflict(`In use by ${users.join(', ')}. Remove those first.`)
   await db.delete(intersections).where(eq(intersections.id, id))
 }
 
-/** Names of the corridors with an approach at the intersection. */
+/**
+ * What still refers to the intersection: corridors with an approach there, and proposals with a
+ * row for it (kept after an approach is removed, since their decisions are a record).
+ */
 export async function intersectionUsage(db: DbOrTx, id: string): Promise<string[]> {
-  const rows = await db.selectDistinct({ name: corridors.name }).from(corridorApproaches)
+  const used = await db.selectDistinct({ name: corridors.name }).from(corridorApproaches)
     .innerJoin(corridors, eq(corridorApproaches.corridorId, corridors.id)).where(eq(corridorApproaches.intersectionId, id))
-  return rows.map((r) => r.name).sort()
+  const proposed = await db.selectDistinct({ name: proposals.name }).from(proposalRows)
+    .innerJoin(proposals, eq(proposalRows.proposalId, proposals.id)).where(eq(proposalRows.intersectionId, id))
+  return [...used.map((r) => r.name), ...proposed.map((r) => `proposal “${r.name}”`)].sort()
 }

@@ -58,10 +58,10 @@ export interface CorridorModel {
   inputs: SavingsInputs
   year: ServiceYear
   runs: DecodedRun[]
-  /** Per service index: how often it runs on an average day of each type. */
-  share: PerDayType[]
-  /** Per service index: days it runs in the 12 months. */
-  annualDays: PerDayType[]
+  /** How often service s runs on an average day of type d: index s * 3 + d. */
+  share: Float64Array
+  /** Days service s runs in the 12 months on days of type d: index s * 3 + d. */
+  annualDays: Float64Array
   periodMinutes: number[]
   /** The row at each approach of the digest (null: no row of the proposal there). */
   rowAt: (RowFigures | null)[]
@@ -84,11 +84,17 @@ export function buildCorridorModel(digest: ScheduleDigest, rows: readonly RowFig
   const dates = new Map(Object.entries(digest.serviceDates))
   const year = serviceYear(dates, digest.feedRange, referenceDay)
   const shares = digest.feedRange ? averageDayShares(dates, digest.feedRange) : new Map<string, PerDayType>()
-  const share = digest.services.map((s) => shares.get(s) ?? zeroPerDayType())
-  const annualDays = digest.services.map((s) => year.perService.get(s) ?? zeroPerDayType())
+  const byDayType = (of: (id: string) => PerDayType | undefined) => {
+    const out = new Float64Array(digest.services.length * 3)
+    digest.services.forEach((id, s) => { const v = of(id) ?? zeroPerDayType(); DAY_TYPES.forEach((t, d) => { out[s * 3 + d] = v[t] }) })
+    return out
+  }
+  const share = byDayType((id) => shares.get(id))
+  const annualDays = byDayType((id) => year.perService.get(id))
 
   const runs: DecodedRun[] = digest.runs.map(([route, service, entryS, exitS, code]) => {
-    const periods = Int8Array.from(code, decodePeriod)
+    const periods = new Int8Array(code.length)
+    for (let a = 0; a < code.length; a++) periods[a] = decodePeriod(code[a])
     return { route, service, entryS, exitS, periods, entryPeriod: periodIndexAt(digest.periods, entryS), full: periods.every((p) => p >= 0) }
   })
 

@@ -21,7 +21,7 @@ export interface CorridorSavingsSource {
   routeNames?: ReadonlyMap<string, string>
   /** Day number the 12 months start on. */
   referenceDay: number
-  /** Bin of the delay distributions, s (default 1). */
+  /** Bin of the delay distributions, s (default 2). */
   binS?: number
 }
 
@@ -87,7 +87,7 @@ function assumptions(src: CorridorSavingsSource, otherFeed: boolean): string[] {
       + (i.costPerRevenueHour === null ? 'no operating cost given.' : `${i.costPerRevenueHour} ${i.currency} per revenue-hour (${i.costYear} prices).`),
     'Passenger-hours are bus riders’ time: saving per trip times the average load of the route in the period.',
     'The person-delay balance adds riders’ time saved and car occupants’ time on the bus street, less the time the cross streets lose, at the occupancy the model assumed.',
-    'Run-time percentiles treat the arrival at each signal as independent of the last (no progression) and bus delays over uniform arrival phases; coordinated signals spread less.',
+    'Run-time percentiles treat the arrival at each signal as independent of the last (no progression) and bus delays over uniform arrival phases, to the nearest 2 s; coordinated signals spread less.',
     'Peak vehicles per route: ceil(cycle time / headway), the cycle being the round trip plus layover, rounded up to the minute (common practice). Priority shortens only the corridor’s direction.',
     'Operating cost and fleet savings become real only when the scheduled running times are cut to match.',
     `Day types: ${DAY_TYPES.join(', ')}; an average day counts each trip by how often its service runs on such days in the feed’s range.`,

@@ -23,7 +23,7 @@ function dayTotals(m: CorridorModel, d: number, keep: (runIndex: number) => bool
   const saved = { accepted: 0, proposed: 0 }
   const pax = { accepted: 0, proposed: 0 }
   m.runs.forEach((run, i) => {
-    const w = m.share[run.service][DAY_TYPES[d]]
+    const w = m.share[run.service * 3 + d]
     if (!w || !keep(i)) return
     trips += w
     runTime += w * (run.exitS - run.entryS)
@@ -84,16 +84,15 @@ export function annualFigures(m: CorridorModel, balance: Record<DayType, Record<
   const saved = { accepted: 0, proposed: 0 }
   const pax = { accepted: 0, proposed: 0 }
   m.runs.forEach((run, i) => {
-    const days = m.annualDays[run.service]
-    DAY_TYPES.forEach((t, d) => {
-      const n = days[t]
-      if (!n) return
+    for (let d = 0; d < 3; d++) {
+      const n = m.annualDays[run.service * 3 + d]
+      if (!n) continue
       trips += n
       for (const sc of SCENARIOS) {
         saved[sc] += n * m.runSaving[sc][i * 3 + d]
         pax[sc] += n * m.runPassengerSaving[sc][i * 3 + d]
       }
-    })
+    }
   })
   const year = (sc: Scenario): ScenarioYear => {
     const vehicleHours = saved[sc] / 3600
@@ -105,46 +104,56 @@ export function annualFigures(m: CorridorModel, balance: Record<DayType, Record<
 
 export function intersectionFigures(m: CorridorModel): Record<DayType, IntersectionSavingsDto[]> {
   const P = m.digest.periods.length
-  const A = m.digest.approachIds.length
   const approachOf = new Map(m.digest.approachIds.map((id, a) => [id, a]))
+  const rows = [...m.rows].sort((x, y) => x.position - y.position)
+  // One pass over the runs per row gives every day type at once.
+  const sums = rows.map((row) => {
+    const a = row.approachId ? approachOf.get(row.approachId) ?? -1 : -1
+    const buses = new Float64Array(3)
+    const perDay = { accepted: new Float64Array(3), proposed: new Float64Array(3) }
+    const perYear = { accepted: 0, proposed: 0 }
+    const pax = new Float64Array(3)
+    if (a >= 0) {
+      for (const run of m.runs) {
+        const p = run.periods[a]
+        if (p < 0) continue
+        const k = (a * P + p) * 3
+        const load = m.loads[run.route * P + p]
+        for (let d = 0; d < 3; d++) {
+          const w = m.share[run.service * 3 + d]
+          const n = m.annualDays[run.service * 3 + d]
+          const acc = m.saving.accepted[k + d]
+          const prop = m.saving.proposed[k + d]
+          buses[d] += w
+          perDay.accepted[d] += w * acc
+          perDay.proposed[d] += w * prop
+          perYear.accepted += n * acc
+          perYear.proposed += n * prop
+          pax[d] += w * prop * load
+        }
+      }
+    }
+    return { row, a, buses, perDay, perYear, pax }
+  })
   const out = {} as Record<DayType, IntersectionSavingsDto[]>
   DAY_TYPES.forEach((dayType, d) => {
-    out[dayType] = [...m.rows].sort((x, y) => x.position - y.position).map((row) => {
-      const a = row.approachId ? approachOf.get(row.approachId) ?? -1 : -1
-      let buses = 0
-      const perDay = { accepted: 0, proposed: 0 }
-      const perYear = { accepted: 0, proposed: 0 }
-      let pax = 0
-      if (a >= 0) {
-        m.runs.forEach((run) => {
-          const p = run.periods[a]
-          if (p < 0) return
-          const w = m.share[run.service][dayType]
-          const k = (a * P + p) * 3
-          buses += w
-          for (const sc of SCENARIOS) {
-            perDay[sc] += w * m.saving[sc][k + d]
-            perYear[sc] += DAY_TYPES.reduce((s, t, e) => s + m.annualDays[run.service][t] * m.saving[sc][k + e], 0)
-          }
-          pax += w * m.saving.proposed[k + d] * m.loads[run.route * P + p]
-        })
-      }
+    out[dayType] = sums.map(({ row, a, buses, perDay, perYear, pax }) => {
       let crossWorst = 0
       let cars = 0
       let missing = 0
       for (let p = 0; p < P; p++) {
-        const f = a >= 0 && a < A ? m.figure(a, p, d) : undefined
+        const f = a >= 0 ? m.figure(a, p, d) : undefined
         if (!f) { missing++; continue }
         crossWorst = Math.max(crossWorst, f.crossExtraDelayPerVehS)
         cars += (f.mainSavedPersonSPerHour - f.crossLostPersonSPerHour) * (m.periodMinutes[p] / 60)
       }
       return {
         rowId: row.rowId, position: row.position, intersectionId: row.intersectionId, intersectionName: row.intersectionName,
-        jurisdictionName: row.jurisdictionName, status: row.status, distanceM: row.distanceM, buses,
-        savingPerBusS: ratio(perDay.proposed, buses),
-        acceptedVehicleHoursPerDay: perDay.accepted / 3600, proposedVehicleHoursPerDay: perDay.proposed / 3600,
+        jurisdictionName: row.jurisdictionName, status: row.status, distanceM: row.distanceM, buses: buses[d],
+        savingPerBusS: ratio(perDay.proposed[d], buses[d]),
+        acceptedVehicleHoursPerDay: perDay.accepted[d] / 3600, proposedVehicleHoursPerDay: perDay.proposed[d] / 3600,
         acceptedVehicleHoursPerYear: perYear.accepted / 3600, proposedVehicleHoursPerYear: perYear.proposed / 3600,
-        crossExtraDelayPerVehS: crossWorst, personHoursBalance: (pax + cars) / 3600, periodsMissing: missing, stale: row.stale,
+        crossExtraDelayPerVehS: crossWorst, personHoursBalance: (pax[d] + cars) / 3600, periodsMissing: missing, stale: row.stale,
       }
     })
   })
@@ -171,7 +180,7 @@ export function hourlyFigures(m: CorridorModel): Record<DayType, HourPoint[]> {
   DAY_TYPES.forEach((dayType, d) => {
     const acc = Array.from({ length: 24 }, () => ({ trips: 0, run: 0, accepted: 0, proposed: 0 }))
     m.runs.forEach((run, i) => {
-      const w = m.share[run.service][dayType]
+      const w = m.share[run.service * 3 + d]
       if (!w) return
       const h = acc[Math.floor(minuteOfDay(run.entryS) / 60)]
       h.trips += w

@@ -8,7 +8,10 @@ import type { ReliabilityDto, RunTimeStats } from '../schemas/savings'
 import type { CorridorModel } from './corridor-model'
 import { convolveAll, mean, percentile, phaseDistributions, shift, type Distribution } from './distribution'
 
-export interface ReliabilityOptions { binS?: number }
+export interface ReliabilityOptions {
+  /** Grid of the delay distributions (default 2 s: schedules are written in minutes, and the work falls with the square of the bins per signal). */
+  binS?: number
+}
 
 /** Median of values with weights: the smallest value whose cumulative weight reaches half. */
 export function weightedMedian(values: readonly number[], weights: readonly number[]): number {
@@ -28,25 +31,19 @@ function stats(fixedS: number, delay: Distribution): RunTimeStats {
 }
 
 export function reliabilityFigures(m: CorridorModel, options: ReliabilityOptions = {}): ReliabilityDto[] {
-  const binS = options.binS ?? 1
+  const binS = options.binS ?? 2
   const A = m.digest.approachIds.length
   const out: ReliabilityDto[] = []
-  // Periods and day types often share a signal's distribution (the same plan and settings).
-  const memo = new Map<string, { without: Distribution; with: Distribution }>()
   const signalDistributions = (a: number, p: number, d: number) => {
     const f = m.figure(a, p, d)
-    if (!f || !f.phases.length) return null
-    const key = `${a}|${f.priorityWeight}|${f.phases.map((x) => `${x.baselineS.toFixed(1)},${x.priorityS.toFixed(1)}`).join(';')}`
-    let hit = memo.get(key)
-    if (!hit) memo.set(key, (hit = phaseDistributions(f.phases, f.priorityWeight, binS)))
-    return hit
+    return f && f.phases.length ? phaseDistributions(f.phases, f.priorityWeight, binS) : null
   }
   DAY_TYPES.forEach((dayType, d) => {
     m.digest.periods.forEach((period, p) => {
       const values: number[] = []
       const weights: number[] = []
       for (const run of m.runs) {
-        const w = m.share[run.service][dayType]
+        const w = m.share[run.service * 3 + d]
         if (!w || !run.full || run.entryPeriod !== p) continue
         values.push(run.exitS - run.entryS)
         weights.push(w)

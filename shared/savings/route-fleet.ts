@@ -12,7 +12,15 @@ import { fleetEffect } from './fleet'
 export function fleetFigures(m: CorridorModel, routeNames: ReadonlyMap<string, string> = new Map()): FleetDto[] {
   const { digest } = m
   const P = digest.periods.length
-  const tripPeriod = digest.trips.map((t) => periodIndexAt(digest.periods, t[3]))
+  // Trips (both directions) and corridor runs by route and period.
+  const bucket = <T>() => Array.from({ length: digest.routes.length * P }, () => [] as T[])
+  const tripsIn = { same: bucket<number>(), opposite: bucket<number>() }
+  digest.trips.forEach((t, k) => {
+    const p = periodIndexAt(digest.periods, t[3])
+    if (p >= 0) tripsIn[t[1] === digest.directionId ? 'same' : 'opposite'][t[0] * P + p].push(k)
+  })
+  const runsIn = bucket<number>()
+  m.runs.forEach((run, i) => { if (run.entryPeriod >= 0) runsIn[run.route * P + run.entryPeriod].push(i) })
   return DAY_TYPES.map((dayType: DayType, d) => {
     const routes: FleetRouteDto[] = []
     const perPeriod = Array.from({ length: P }, () => ({ without: 0, accepted: 0, proposed: 0 }))
@@ -21,23 +29,22 @@ export function fleetFigures(m: CorridorModel, routeNames: ReadonlyMap<string, s
       for (let p = 0; p < P; p++) {
         let trips = 0
         const saved = { accepted: 0, proposed: 0 }
-        m.runs.forEach((run, i) => {
-          if (run.route !== r || run.entryPeriod !== p) return
-          const w = m.share[run.service][dayType]
+        for (const i of runsIn[r * P + p]) {
+          const w = m.share[m.runs[i].service * 3 + d]
           trips += w
           saved.accepted += w * m.runSaving.accepted[i * 3 + d]
           saved.proposed += w * m.runSaving.proposed[i * 3 + d]
-        })
+        }
         // Fewer than one bus in the period: no headway to speak of.
         if (trips < 1 - 1e-9) continue
         const duration = (dir: 'same' | 'opposite') => {
           const v: number[] = []
           const w: number[] = []
-          digest.trips.forEach((t, k) => {
-            if (t[0] !== r || tripPeriod[k] !== p || (t[1] === digest.directionId) !== (dir === 'same')) return
-            const share = m.share[t[2]][dayType]
+          for (const k of tripsIn[dir][r * P + p]) {
+            const t = digest.trips[k]
+            const share = m.share[t[2] * 3 + d]
             if (share > 0) { v.push(t[4]); w.push(share) }
-          })
+          }
           return v.length ? weightedMedian(v, w) / 60 : null
         }
         const same = duration('same')

@@ -74,6 +74,14 @@ export const routes = [
     path: '/feeds/:id', name: 'feed', component: () => import('@/views/FeedDetailView.vue'), props: true,
     meta: { roles: ['planner', 'manager', 'admin'] },
   },
+  {
+    path: '/savings', name: 'savings', component: () => import('@/views/SavingsDashboardView.vue'),
+    meta: { roles: ['planner', 'manager'], nav: { label: 'Savings', icon: 'pi pi-money-bill', order: 45 } },
+  },
+  {
+    path: '/savings/report/:id', name: 'report', component: () => import('@/views/SavingsReportView.vue'), props: true,
+    meta: { roles: ['planner', 'manager'] },
+  },
   { path: '/:pathMatch(.*)*', name: 'not-found', component: () => import('@/views/NotFoundView.vue'), meta: { public: true } },
 ] as const satisfies readonly RouteRecordRaw[]
 

@@ -6,6 +6,7 @@ import { seedDemoProposal } from './demo-proposal'
 import { seedDemoFeed } from './demo-feed'
 import { seedDemoLimits } from './demo-limits'
 import { seedDemoSignals } from './demo-signals'
+import { seedDemoSavingsInputs } from './demo-savings-inputs'
 
 export interface SeedOptions {
   password: string
@@ -22,6 +23,7 @@ export async function seedDemo(db: Db, options: SeedOptions): Promise<void> {
   const feedId = await seedDemoFeed(db)
   await seedDemoSignals(db, feedId)
   await seedDemoLimits(db)
+  await seedDemoSavingsInputs(db)
   // After the feed, the signals and the demo corridor: a no-op until they exist.
   await seedDemoProposal(db)
 }

@@ -83,10 +83,14 @@ describe('GET /api/dashboard for a corridor', () => {
     expect(f.annual.accepted.vehicleHours).toBeCloseTo(weekday * perDay('weekday') + saturday * perDay('saturday') + sunday * perDay('sunday'), 8)
   })
 
-  it('uses the agency’s inputs once a planner sets them, and the corridor’s own over them', async () => {
+  it('uses the agency’s inputs, which a planner changes, and the corridor’s own over them', async () => {
     const planner = await t.as('planner')
-    const agency: SavingsInputsDto = (await planner.put('/api/dashboard/inputs').send(inputsBody).expect(200)).body
-    expect(agency).toMatchObject({ source: 'agency', corridorId: null, version: 1, mayEdit: true })
+    // The demo seeds the agency's defaults: a write must name the version it read.
+    const seeded: SavingsInputsDto = (await (await t.as('manager')).get('/api/dashboard/inputs').expect(200)).body
+    expect(seeded).toMatchObject({ source: 'agency', corridorId: null, version: 1, mayEdit: false })
+    await planner.put('/api/dashboard/inputs').send(inputsBody).expect(409)
+    const agency: SavingsInputsDto = (await planner.put('/api/dashboard/inputs').send({ ...inputsBody, version: 1 }).expect(200)).body
+    expect(agency).toMatchObject({ source: 'agency', corridorId: null, version: 2, mayEdit: true })
     let f = await corridorDashboard()
     expect(f.inputs).toMatchObject({ source: 'agency', costPerRevenueHour: 150, mayEdit: false })
     expect(f.annual.accepted.cost).toBeCloseTo(f.annual.accepted.vehicleHours * 150, 8)

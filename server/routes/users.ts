@@ -2,8 +2,8 @@ import { Router } from 'express'
 import type { AppContext } from '../context'
 import { validate } from '../middleware/validate'
 import { currentUser, requireRole } from '../auth/middleware'
-import { inviteUser, listOrganisations, listUsers, patchUser } from '../services/users'
-import { idParams, inviteBody, userPatchBody } from '../../shared/schemas/auth'
+import { inviteUser, listOrganisations, listUsers, patchOrganisation, patchUser } from '../services/users'
+import { idParams, inviteBody, organisationPatchBody, userPatchBody } from '../../shared/schemas/auth'
 
 export function usersRouter(ctx: AppContext): Router {
   const r = Router()
@@ -22,6 +22,9 @@ export function organisationsRouter(ctx: AppContext): Router {
   const r = Router()
   r.get('/', requireRole('planner', 'engineer', 'manager', 'admin'), async (_req, res) => {
     res.json(await listOrganisations(ctx.db))
+  })
+  r.patch('/:id', requireRole('admin'), validate({ params: idParams, body: organisationPatchBody }), async (req, res) => {
+    res.json(await patchOrganisation(ctx.db, req.params.id as string, req.body))
   })
   return r
 }

@@ -7,7 +7,7 @@ import { Conflict, NotFound, Unprocessable } from '../errors'
 import { hashPassword } from '../auth/password'
 import type { Clock } from '../clock'
 import type { Mailer } from './mail'
-import type { AcceptInviteBody, InviteBody, UserDto, UserPatchBody } from '../../shared/schemas/auth'
+import type { AcceptInviteBody, InviteBody, OrganisationDto, OrganisationPatchBody, UserDto, UserPatchBody } from '../../shared/schemas/auth'
 import { ROLE_LABELS } from '../../shared/roles'
 
 const userColumns = {
@@ -79,4 +79,12 @@ export async function patchUser(db: Db, actorId: string, id: string, body: UserP
   }
   await db.update(users).set(body).where(eq(users.id, id))
   return getUser(db, id)
+}
+
+/** Units are an organisation's choice: everyone in it sees metric or US customary figures. */
+export async function patchOrganisation(db: Db, id: string, body: OrganisationPatchBody): Promise<OrganisationDto> {
+  const [row] = await db.update(organisations).set(body).where(eq(organisations.id, id))
+    .returning({ id: organisations.id, name: organisations.name, kind: organisations.kind, unitSystem: organisations.unitSystem })
+  if (!row) throw new NotFound('Organisation')
+  return row
 }

@@ -55,3 +55,8 @@ export const outboxMessageDto = z.object({
   createdAt: z.string(),
 })
 export type OutboxMessageDto = z.infer<typeof outboxMessageDto>
+
+export const organisationPatchBody = z.strictObject({
+  unitSystem: z.enum(['metric', 'us']),
+})
+export type OrganisationPatchBody = z.infer<typeof organisationPatchBody>

@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import * as usersApi from '@/api/users'
-import type { InviteBody, OrganisationDto, UserDto, UserPatchBody } from '@shared/schemas/auth'
+import type { InviteBody, OrganisationDto, OrganisationPatchBody, UserDto, UserPatchBody } from '@shared/schemas/auth'
 
 export const useUsersStore = defineStore('users', () => {
   const items = ref<UserDto[]>([])
@@ -28,5 +28,11 @@ export const useUsersStore = defineStore('users', () => {
     items.value = items.value.map((u) => (u.id === id ? user : u))
   }
 
-  return { items, organisations, loading, load, invite, patch }
+  async function patchOrganisation(id: string, body: OrganisationPatchBody) {
+    const org = await usersApi.patchOrganisation(id, body)
+    organisations.value = organisations.value.map((o) => (o.id === id ? org : o))
+    items.value = items.value.map((u) => (u.organisation.id === id ? { ...u, organisation: org } : u))
+  }
+
+  return { items, organisations, loading, load, invite, patch, patchOrganisation }
 })

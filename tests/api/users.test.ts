@@ -116,6 +116,24 @@ describe('GET /api/outbox and /api/organisations', () => {
   })
 })
 
+describe('PATCH /api/organisations/:id', () => {
+  it('lets an admin switch an organisation to US customary units, seen in its people\'s /me', async () => {
+    const admin = await t.as('admin')
+    const res = await admin.patch('/api/organisations/org-osterfield').send({ unitSystem: 'us' }).expect(200)
+    expect(res.body).toMatchObject({ id: 'org-osterfield', unitSystem: 'us' })
+    const me = await (await t.as('engineer2')).get('/api/auth/me').expect(200)
+    expect(me.body.user.organisation.unitSystem).toBe('us')
+  })
+
+  it('is 422 for an unknown unit system, 404 for an unknown organisation, 403 for other roles', async () => {
+    const admin = await t.as('admin')
+    const bad = await admin.patch('/api/organisations/org-osterfield').send({ unitSystem: 'imperial' }).expect(422)
+    expect(bad.body.issues[0].path).toEqual(['unitSystem'])
+    await admin.patch('/api/organisations/nowhere').send({ unitSystem: 'us' }).expect(404)
+    await (await t.as('engineer2')).patch('/api/organisations/org-osterfield').send({ unitSystem: 'us' }).expect(403)
+  })
+})
+
 describe('GET /api/jobs/:id', () => {
   it('is 404 for an unknown job and 401 signed out', async () => {
     await (await t.as('planner')).get('/api/jobs/unknown').expect(404)

@@ -17,12 +17,11 @@ import { SWEEP_CAUTION, sweepRanges, type SuggestResponse, type SuggestRowResult
 import type { DayType } from '../../shared/signals/time-of-day'
 import { DAY_TYPE_LABELS } from '../../shared/signals/time-of-day'
 import type { RowSettings } from '../../shared/schemas/proposals'
-import { rowModelInput } from '../../shared/proposals/model-input'
 import { checkPriority, type PlanForCheck } from '../../shared/proposals/priority-checks'
 import { SOURCES } from '../../shared/signals/limits'
 import { transition } from '../../shared/proposals/row-state'
 import { rowSettingsWith } from '../../shared/proposals/sweep-settings'
-import { loadEvaluationContext, planForPeriod, tripsAtApproach, type EvaluationContext } from './proposals/evaluation-context'
+import { loadEvaluationContext, periodModelBody, planForPeriod, tripsAtApproach, type EvaluationContext } from './proposals/evaluation-context'
 import { assertMayPlan, proposalRecord, rowRecord, settingsOf, type RowRecord } from './proposals/records'
 import { rowDtos } from './proposals/dto'
 import { patchRow } from './proposals/rows'
@@ -45,7 +44,6 @@ function periodInputs(ctx: EvaluationContext, row: RowRecord, dayType: DayType):
   if (!approach) return { inputs: [], skipped: ['The approach was removed from the corridor.'] }
   const plans = ctx.plans.get(row.intersectionId) ?? []
   const trips = tripsAtApproach(ctx, approach.distanceM)
-  const stopDistance = approach.stopId ? ctx.stopDistanceById.get(approach.stopId) : undefined
   const inputs: PeriodInput[] = []
   const skipped: string[] = []
   for (const period of ctx.periods) {
@@ -54,19 +52,7 @@ function periodInputs(ctx: EvaluationContext, row: RowRecord, dayType: DayType):
     if (!plan) { skipped.push(`No timing plan covers ${period.name} on ${DAY_TYPE_LABELS[dayType]}s.`); continue }
     if (!volumes) { skipped.push(`No traffic volumes for ${period.name}.`); continue }
     const tripsPerDay = trips.get(period.id)?.[dayType] ?? 0
-    const parsed = approachBody.safeParse(rowModelInput({
-      approach: {
-        lanes: approach.lanes, saturationFlowVehPerHourPerLane: approach.saturationFlowVehPerHourPerLane, speedLimitKmh: approach.speedLimitKmh,
-        jamDensityVehPerKmPerLane: approach.jamDensityVehPerKmPerLane, crossLanes: approach.crossLanes,
-        crossSaturationFlowVehPerHourPerLane: approach.crossSaturationFlowVehPerHourPerLane, stopRelation: approach.stopRelation,
-        stopDistanceM: stopDistance === undefined ? null : Math.abs(approach.distanceM - stopDistance),
-        dwellS: approach.dwellS, checkInDistanceM: approach.checkInDistanceM,
-      },
-      volumes,
-      plan,
-      settings: settingsOf(row),
-      busesPerHour: period.minutes ? Math.min(200, tripsPerDay / (period.minutes / 60)) : 0,
-    }))
+    const parsed = approachBody.safeParse(periodModelBody(ctx, approach, period, { plan, volumes, settings: settingsOf(row), tripsPerDay }))
     if (!parsed.success) { skipped.push(`${period.name}: the stored data do not make a valid model input.`); continue }
     const broken = checkApproach(withSettings(parsed.data, NO_PRIORITY))
     if (broken.length) { skipped.push(`${period.name}: ${broken.map((v) => v.reason).join('; ')}.`); continue }

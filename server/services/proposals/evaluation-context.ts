@@ -123,6 +123,32 @@ export interface RowToEvaluate {
   intersectionId: string
 }
 
+type ModelInputArgs = Parameters<typeof rowModelInput>[0]
+
+/**
+ * The model body of one approach in one period, as every evaluation builds it (stored results,
+ * counters and the recommender all use this one).
+ */
+export function periodModelBody(
+  ctx: EvaluationContext, approach: ApproachRow, period: EvaluationContext['periods'][number],
+  a: { plan: ModelInputArgs['plan']; volumes: ModelInputArgs['volumes']; settings: RowSettings; tripsPerDay: number },
+) {
+  const stopDistance = approach.stopId ? ctx.stopDistanceById.get(approach.stopId) : undefined
+  return rowModelInput({
+    approach: {
+      lanes: approach.lanes, saturationFlowVehPerHourPerLane: approach.saturationFlowVehPerHourPerLane, speedLimitKmh: approach.speedLimitKmh,
+      jamDensityVehPerKmPerLane: approach.jamDensityVehPerKmPerLane, crossLanes: approach.crossLanes,
+      crossSaturationFlowVehPerHourPerLane: approach.crossSaturationFlowVehPerHourPerLane, stopRelation: approach.stopRelation,
+      stopDistanceM: stopDistance === undefined ? null : Math.abs(approach.distanceM - stopDistance),
+      dwellS: approach.dwellS, checkInDistanceM: approach.checkInDistanceM,
+    },
+    volumes: a.volumes,
+    plan: a.plan,
+    settings: a.settings,
+    busesPerHour: period.minutes ? Math.min(200, a.tripsPerDay / (period.minutes / 60)) : 0,
+  })
+}
+
 export function computeRowResults(
   ctx: EvaluationContext, row: RowToEvaluate, settings: RowSettings,
   run: { evaluationId: string; proposalId: string; proposalVersion: number; variant: 'proposed' | 'counter' },
@@ -147,20 +173,7 @@ export function computeRowResults(
         : !plan ? `No timing plan covers ${period.name} on ${DAY_TYPE_LABELS[dayType]}s.`
           : !volumes ? `No traffic volumes for ${period.name} at this approach.` : null
       if (missing) { out.push({ ...base, error: missing }); continue }
-      const stopDistance = approach!.stopId ? ctx.stopDistanceById.get(approach!.stopId) : undefined
-      const body = rowModelInput({
-        approach: {
-          lanes: approach!.lanes, saturationFlowVehPerHourPerLane: approach!.saturationFlowVehPerHourPerLane, speedLimitKmh: approach!.speedLimitKmh,
-          jamDensityVehPerKmPerLane: approach!.jamDensityVehPerKmPerLane, crossLanes: approach!.crossLanes,
-          crossSaturationFlowVehPerHourPerLane: approach!.crossSaturationFlowVehPerHourPerLane, stopRelation: approach!.stopRelation,
-          stopDistanceM: stopDistance === undefined ? null : Math.abs(approach!.distanceM - stopDistance),
-          dwellS: approach!.dwellS, checkInDistanceM: approach!.checkInDistanceM,
-        },
-        volumes: volumes!,
-        plan: plan!,
-        settings,
-        busesPerHour: period.minutes ? Math.min(200, tripsPerDay / (period.minutes / 60)) : 0,
-      })
+      const body = periodModelBody(ctx, approach!, period, { plan: plan!, volumes: volumes!, settings, tripsPerDay })
       const parsed = approachBody.safeParse(body)
       if (!parsed.success) {
         out.push({ ...base, error: `The stored data do not make a valid model input: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}` })

@@ -2,7 +2,7 @@ import { defineStore } from 'pinia'
 import { ref } from 'vue'
 import * as realtimeApi from '@/api/realtime'
 import type {
-  CalibrationDto, CoverageDto, LatenessDto, RealtimeFileResultDto, RealtimeIngestSummaryDto, RealtimeSourceBody, RealtimeSourceDto,
+  CalibrationDto, LatenessDto, RealtimeFileResultDto, RealtimeIngestSummaryDto, RealtimeSourceBody, RealtimeSourceDto,
 } from '@shared/schemas/realtime'
 
 export interface UploadState {
@@ -22,7 +22,6 @@ export const useRealtimeStore = defineStore('realtime', () => {
   const upload = ref<UploadState>(idle())
   const sources = ref<RealtimeSourceDto[]>([])
   const demoFeedUrl = ref<string | null>(null)
-  const coverage = ref<CoverageDto | null>(null)
   const calibration = ref<CalibrationDto | null>(null)
   const lateness = ref<LatenessDto | null>(null)
 
@@ -70,12 +69,11 @@ export const useRealtimeStore = defineStore('realtime', () => {
   }
 
   async function loadCorridor(corridorId: string, range: realtimeApi.DateRange = {}, lateThresholdS?: number) {
-    ;[coverage.value, calibration.value, lateness.value] = await Promise.all([
-      realtimeApi.getCoverage(corridorId),
+    ;[calibration.value, lateness.value] = await Promise.all([
       realtimeApi.getCalibration(corridorId, range),
       realtimeApi.getLateness(corridorId, range, lateThresholdS),
     ])
   }
 
-  return { upload, sources, demoFeedUrl, coverage, calibration, lateness, uploadFiles, loadSources, addSource, removeSource, pollNow, loadCorridor }
+  return { upload, sources, demoFeedUrl, calibration, lateness, uploadFiles, loadSources, addSource, removeSource, pollNow, loadCorridor }
 })

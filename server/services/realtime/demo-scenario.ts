@@ -34,14 +34,17 @@ export function demoSignals(csvText: string): ScenarioSignal[] {
   return [...byName.values()]
 }
 
-/** directionId 0 keeps the eastbound runs only (the demo corridor's), to keep the archive small. */
-export function loadDemoScenario(opts: { priority: boolean; seed?: number; directionId?: number }): RealtimeScenario {
+/**
+ * directionId 0 keeps the eastbound runs only (the demo corridor's), to keep the archive small;
+ * trip updates go in every 60 s unless tripUpdateEveryS says otherwise (0: every feed).
+ */
+export function loadDemoScenario(opts: { priority: boolean; seed?: number; directionId?: number; tripUpdateEveryS?: number }): RealtimeScenario {
   const gtfs = readScenarioGtfs(readFileSync(sample('lindenmere-gtfs.zip')), ['7', '17'], opts.directionId)
   return new RealtimeScenario(gtfs, {
     seed: opts.seed ?? DEMO_SEED,
     signals: demoSignals(readFileSync(sample('lindenmere-signals.csv'), 'utf8')),
     priority: { enabled: opts.priority, ...DEMO_PRIORITY_LIMITS },
     tripUpdates: true,
-    tripUpdateEveryS: 60,
+    tripUpdateEveryS: opts.tripUpdateEveryS ?? 60,
   })
 }

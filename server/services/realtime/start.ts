@@ -11,7 +11,7 @@ import { setDemoFeedUrl } from './demo-feed'
 export async function startRealtime(db: Db, clock: Clock, opts: { fakeFeed: boolean }): Promise<{ fakeFeedUrl: string | null; stop(): Promise<void> }> {
   let fake: Awaited<ReturnType<typeof startFakeRealtimeFeed>> | null = null
   if (opts.fakeFeed) {
-    const scenario = loadDemoScenario({ priority: true })
+    const scenario = loadDemoScenario({ priority: true, tripUpdateEveryS: 0 })
     fake = await startFakeRealtimeFeed((t) => scenario.feedAt(t), clock)
     setDemoFeedUrl(fake.url)
   }

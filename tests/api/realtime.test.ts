@@ -119,8 +119,9 @@ describe('GET /api/realtime/observations', () => {
   it('derives stop and segment times of the reference run (hand computed)', async () => {
     const res = await (await t.as('engineer')).get(`/api/realtime/observations?corridorId=${fx.corridorId}&from=2026-01-12&to=2026-01-12`).expect(200)
     const body = res.body
-    // Segments: approach 1 at 600 m, approach 2 at 1100 m; midpoint 850 m. Upstream 400 m and
-    // downstream 150 m (the model's approach lengths), cut at the midpoint:
+    // Segments: approach 1 at 600 m, approach 2 at 1100 m; midpoint 850 m. Upstream 400 m (more than
+    // the 150 m check-in + 50 m and the near-side stop 110 m + 50 m) and downstream 150 m, the
+    // stretch the proposals' evaluation gives the model, cut at the midpoint:
     // segment 1 = [max(0, 600-400), min(850, 600+150)] = [200, 750]; segment 2 = [max(850, 700), min(length, 1250)] = [850, 1250].
     expect(body.segments.map((s: { fromM: number; toM: number }) => [s.fromM, s.toM])).toEqual([[200, 750], [850, 1250]])
     const trip = body.trips.find((x: { tripId: string }) => x.tripId === '7-1200')

@@ -16,6 +16,7 @@ export interface CorridorApproachInfo {
   stopId: string | null
   dwellS: number | null
   speedLimitKmh: number
+  checkInDistanceM: number
 }
 
 export interface CorridorInfo {
@@ -45,9 +46,9 @@ export async function loadCorridor(db: Db, corridorId: string): Promise<Corridor
     select seq, stop_id, name, distance_m from corridor_stops where corridor_id = ${corridorId} order by seq`)).rows
   const approaches = (await db.execute<{
     id: string; intersection_id: string; name: string; distance_m: number; stop_relation: 'near-side' | 'far-side' | 'none'
-    stop_id: string | null; dwell_s: number | null; speed_limit_kmh: number
+    stop_id: string | null; dwell_s: number | null; speed_limit_kmh: number; check_in_distance_m: number
   }>(sql`
-    select a.id, a.intersection_id, i.name, a.distance_m, a.stop_relation, a.stop_id, a.dwell_s, a.speed_limit_kmh
+    select a.id, a.intersection_id, i.name, a.distance_m, a.stop_relation, a.stop_id, a.dwell_s, a.speed_limit_kmh, a.check_in_distance_m
     from corridor_approaches a join intersections i on i.id = a.intersection_id
     where a.corridor_id = ${corridorId} order by a.distance_m`)).rows
   const periods = (await db.execute<{ id: string; name: string; start_time: string; end_time: string }>(sql`
@@ -65,6 +66,7 @@ export async function loadCorridor(db: Db, corridorId: string): Promise<Corridor
     approaches: approaches.map((a) => ({
       id: a.id, intersectionId: a.intersection_id, intersectionName: a.name, distanceM: Number(a.distance_m), stopRelation: a.stop_relation,
       stopId: a.stop_id, dwellS: a.dwell_s === null ? null : Number(a.dwell_s), speedLimitKmh: Number(a.speed_limit_kmh),
+      checkInDistanceM: Number(a.check_in_distance_m),
     })),
     periods: periods.map((p) => ({ id: p.id, name: p.name, startTime: p.start_time, endTime: p.end_time })),
   }

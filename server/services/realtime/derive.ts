@@ -8,20 +8,27 @@
 // reaching its last one.
 //
 // The segment of an intersection runs from the upstream end of the model's approach to its
-// downstream end (the model's default lengths), cut at the midpoint to a neighbouring
-// intersection so that no delay is counted twice: observed and modelled delay then cover the same
-// stretch of street.
+// downstream end (the lengths the proposals' evaluation gives the model), cut at the midpoint to
+// a neighbouring intersection so that no delay is counted twice: observed and modelled delay
+// then cover the same stretch of street.
 import { inWindow } from '../../../shared/signals/time-of-day'
 import { minuteOfDay } from '../../../shared/corridors/schedule'
 import { buildShapeLine, type ShapeLine } from './shape-line'
 import { arrivalAt, buildTrajectory, departureAt, dwellAt, type TrajectoryPoint } from './trajectory'
 import { dayTypeOfIso, serviceDayStart } from './service-day'
-import type { CorridorInfo } from './corridor-data'
+import type { CorridorApproachInfo, CorridorInfo } from './corridor-data'
+import { MODEL_ASSUMPTIONS } from '../../../shared/proposals/model-input'
 import type { ObservedTripDto, SegmentDefinitionDto } from '../../../shared/schemas/realtime'
 
-/** Lengths of an approach in the model (shared/schemas/model.ts defaults). */
-export const SEGMENT_UPSTREAM_M = 400
-export const SEGMENT_DOWNSTREAM_M = 150
+/** The modelled stretch of an approach, as shared/proposals/model-input.ts lays it out. */
+export function modelledLengths(a: CorridorApproachInfo, stopDistanceM: number | null): { upstreamM: number; downstreamM: number } {
+  const A = MODEL_ASSUMPTIONS
+  const stop = stopDistanceM ?? A.defaultStopDistanceM
+  return {
+    upstreamM: Math.max(A.minApproachLengthM, a.checkInDistanceM + 50, a.stopRelation === 'near-side' ? stop + 50 : 0),
+    downstreamM: Math.max(A.downstreamLengthM, a.stopRelation === 'far-side' ? stop + 50 : 0),
+  }
+}
 
 export interface PositionRow {
   tripId: string
@@ -58,13 +65,15 @@ export function segmentsOf(c: Pick<CorridorInfo, 'approaches' | 'stops'>, length
   return c.approaches.map((a, i) => {
     const prev = i > 0 ? (xs[i - 1] + a.distanceM) / 2 : 0
     const next = i < xs.length - 1 ? (a.distanceM + xs[i + 1]) / 2 : lengthM
+    const stop = a.stopId ? c.stops.find((s) => s.stopId === a.stopId) : undefined
+    const { upstreamM, downstreamM } = modelledLengths(a, stop ? Math.abs(stop.distanceM - a.distanceM) : null)
     return {
       approachId: a.id,
       intersectionId: a.intersectionId,
       intersectionName: a.intersectionName,
       stopLineM: a.distanceM,
-      fromM: Math.max(prev, a.distanceM - SEGMENT_UPSTREAM_M, 0),
-      toM: Math.min(next, a.distanceM + SEGMENT_DOWNSTREAM_M, lengthM),
+      fromM: Math.max(prev, a.distanceM - upstreamM, 0),
+      toM: Math.min(next, a.distanceM + downstreamM, lengthM),
     }
   })
 }

@@ -72,6 +72,7 @@ describe('signing in as each demo role', () => {
     await page.getByLabel('E-mail').fill('ola@fanlight.test')
     await page.getByRole('button', { name: 'Send invitation' }).click()
     await page.getByRole('cell', { name: 'ola@fanlight.test' }).waitFor()
+    await page.getByRole('dialog').waitFor({ state: 'hidden' })
     await screenshot(page, 'admin-people')
     await shell.go('Outbox')
     await page.getByRole('cell', { name: 'You are invited to Fanlight' }).first().waitFor()

@@ -1,10 +1,9 @@
 import { readFileSync } from 'node:fs'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
 import { ApprovalTablePage, ProposalPages } from './support/approval-pages'
+import { openBrowserSession } from './support/session'
 
 // The whole negotiation on the demo scenario, in a real browser against the real server: the
 // planner drafts, evaluates and submits a proposal on the seeded demo corridor; the Brackenford
@@ -13,22 +12,10 @@ import { ApprovalTablePage, ProposalPages } from './support/approval-pages'
 const CORRIDOR = 'Kestrel Avenue eastbound'
 const PROPOSAL = 'Kestrel Avenue, second round'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
+const { server, page } = await openBrowserSession()
 let proposalId: string
 interface Row { id: string; intersectionName: string; jurisdictionId: string; version: number; status: string }
 let rows: Row[]
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
 
 /** The proposal as the signed-in person of the page sees it (same session, through the API). */
 async function current() {

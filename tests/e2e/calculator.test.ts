@@ -1,24 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
+import { openBrowserSession } from './support/session'
 
 // The approach calculator in a real browser: its defaults are the pretimed-signal worked example,
 // and the browser recomputes the figures as the form changes.
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
+const { server, page } = await openBrowserSession()
 
 /** The numbers of the "Longest queue" figure: metres and vehicles. */
 async function longestQueue(): Promise<[number, number]> {

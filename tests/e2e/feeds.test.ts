@@ -1,23 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
+import { describe, expect, it } from 'vitest'
 import { minimalFeed, zipFeed } from '../support/gtfs-fixtures'
-import { launchBrowser, screenshot } from './support/browser'
+import { screenshot } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
+import { openBrowserSession } from './support/session'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
+const { server, page } = await openBrowserSession()
 
 async function uploadFeed(name: string, body: Buffer) {
   await page.locator('input[type="file"]').setInputFiles({ name, mimeType: 'application/zip', buffer: body })

@@ -1,26 +1,14 @@
-import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
+import { afterEach, describe, expect, it } from 'vitest'
 import { readFileSync } from 'node:fs'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot } from './support/browser'
+import { screenshot } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
 import { ObservedPage } from './support/observed-page'
+import { openBrowserSession } from './support/session'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
+const { server, browser, page } = await openBrowserSession()
 
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
 // A failed test must not leave the next one signed in.
-afterEach(async () => { await browser?.clearCookies() })
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
+afterEach(async () => { await browser.clearCookies() })
 
 const snapshots = (name: string) => ({ name, buffer: readFileSync(`sample-feeds/realtime/${name}`) })
 // A signed change with its interval, as the table writes it: "−12 s (−30 s to −3 s)".

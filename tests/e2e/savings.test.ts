@@ -1,29 +1,16 @@
 import { readFileSync } from 'node:fs'
 import path from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot, SCREENSHOT_DIR } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { screenshot, SCREENSHOT_DIR } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
 import type { DashboardDto } from '../../shared/schemas/savings'
+import { openBrowserSession } from './support/session'
 
 // The manager's savings on the seeded demo corridor, in a real browser against the real server:
 // key figures, the tables and their CSV, and the printable report.
 const CORRIDOR = 'Kestrel Avenue eastbound'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
+const { server, page } = await openBrowserSession()
 
 /** The dashboard as the signed-in person sees it, through the API with the page's session. */
 async function figures(corridorId: string) {

@@ -1,22 +1,9 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support/browser'
 import { AppShell, SignInPage, signInAs } from './support/pages'
+import { openBrowserSession } from './support/session'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
+const { server, page } = await openBrowserSession()
 
 // Each role sees its own pages; everyone sees Home. Pages added by later features only extend these lists.
 const cases = [

@@ -1,9 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { BrowserContext, Page } from 'playwright-core'
-import { startServerProcess, type ServerProcess } from '../support/server-process'
-import { launchBrowser, screenshot } from './support/browser'
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support/browser'
 import { AppShell, signInAs } from './support/pages'
 import { ApprovalTablePage, ProposalPages } from './support/approval-pages'
+import { openBrowserSession } from './support/session'
 
 // Suggested settings and the trade-off curve on the demo scenario, in a real browser against the
 // real server: the planner fills every row with the recommendation and submits; the Brackenford
@@ -12,25 +11,13 @@ import { ApprovalTablePage, ProposalPages } from './support/approval-pages'
 const CORRIDOR = 'Kestrel Avenue eastbound'
 const PROPOSAL = 'Kestrel Avenue, suggested settings'
 
-let server: ServerProcess
-let browser: BrowserContext
-let page: Page
+const { server, page } = await openBrowserSession()
 let proposalId: string
 interface Row {
   id: string; intersectionName: string; jurisdictionId: string; version: number; status: string
   settings: { strategy: string; maxExtensionS: number; maxEarlyGreenS: number; lockoutCycles: number }
   counter: { maxExtensionS?: number; maxEarlyGreenS?: number; lockoutCycles?: number } | null
 }
-
-beforeAll(async () => {
-  server = await startServerProcess()
-  browser = await launchBrowser()
-  page = await browser.newPage()
-})
-afterAll(async () => {
-  await browser?.close()
-  await server?.stop()
-})
 
 async function rows(): Promise<Row[]> {
   return (await page.evaluate(async (id) => (await fetch(`/api/proposals/${id}`)).json(), proposalId)).rows
